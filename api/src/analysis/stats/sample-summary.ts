@@ -1,0 +1,356 @@
+/**
+ * Mergeable summary of a run of samples, and the fused one-pass kernel that computes it.
+ *
+ * A summary holds everything needed to assemble the statistics of a window from the summaries of
+ * consecutive pieces (stored chunks plus two partial edge chunks) so that they equal the direct
+ * computation (up to floating-point rounding): count, mean and sum of squared deviations (Welford's
+ * algorithm with Chan et al.'s pairwise merge, numerically stable even with large offsets), min and
+ * max with their times, first and last sample, and the time-weighted integrals over the intervals
+ * between samples (trapezoid rule; intervals longer than the gap threshold are gaps: counted,
+ * never integrated). Percentiles cannot be assembled from summaries; see `statistics.ts`.
+ *
+ * Sources: B. P. Welford, "Note on a method for calculating corrected sums of squares and products",
+ * Technometrics 4(3), 1962; T. F. Chan, G. H. Golub, R. J. LeVeque, "Algorithms for computing the
+ * sample variance: analysis and recommendations", The American Statistician 37(3), 1983 (pairwise
+ * update). Within a block of samples the kernel uses the two-pass algorithm (mean, then squared
+ * deviations), which Chan et al. recommend; blocks are then merged pairwise.
+ */
+
+import {
+  MAX_ABS_CURRENT_A,
+  MAX_ABS_TIME_S,
+  assertFiniteNumber,
+  assertIndexRange,
+  assertSampleArray,
+  throwAtFirstBadValue,
+  type SampleArray,
+} from '../validation/assert-input.js';
+import { throwTimestampError, timeAt, type TimeAxis } from '../time/time-axis.js';
+import { timeAboveOnSegment } from './linear-segment.js';
+
+/** An interval between two consecutive samples that is a gap: [startS, endS]. */
+export interface GapInterval {
+  startS: number;
+  endS: number;
+}
+
+/**
+ * Mergeable summary of samples [from, to) of a series. Plain JSON-able numbers.
+ * Units: A for currents, s for times, A·s and A²·s for the integrals.
+ * Derived figures: sum = count · meanA; sum of squares = m2A2 + count · meanA².
+ */
+export interface SampleSummary {
+  /** Number of samples. */
+  count: number;
+  /** Arithmetic mean of the samples (A). */
+  meanA: number;
+  /** Sum of squared deviations from the mean (A²), Welford's M2. */
+  m2A2: number;
+  minA: number;
+  /** Time of the first occurrence of the minimum (s). */
+  minTimeS: number;
+  maxA: number;
+  /** Time of the first occurrence of the maximum (s). */
+  maxTimeS: number;
+  firstTimeS: number;
+  firstA: number;
+  lastTimeS: number;
+  lastA: number;
+  /** Total length of the intervals that are not gaps (s). */
+  coveredTimeS: number;
+  /** ∫ i dt over the covered intervals, trapezoid rule (A·s). */
+  integralAs: number;
+  /** ∫ i² dt over the covered intervals, trapezoid rule on i² (A²·s). */
+  integralA2s: number;
+  /** Intervals longer than this (s) are gaps; null: no interval is a gap. */
+  gapThresholdS: number | null;
+  gapCount: number;
+  /** Total length of the gaps (s). */
+  gapTimeS: number;
+  /** The longest gap (the earliest of equals), or null. */
+  longestGap: GapInterval | null;
+  /** Current levels (A) whose time-above is accumulated, fixed when the summary is made. */
+  thresholdsA: number[];
+  /** Time (s) strictly above each of thresholdsA over the covered intervals (linear interpolation). */
+  timeAboveS: number[];
+}
+
+/** Options of `summarise`. */
+export interface SummariseOptions {
+  /**
+   * Intervals longer than this (s) are gaps; null: none is. Summaries merge only when they share it,
+   * so a store should fix it once per trace (e.g. gapThresholdFromSpacing of the trace's spacing).
+   */
+  gapThresholdS: number | null;
+  /** Current levels (A) to accumulate time above; default none. */
+  thresholdsA?: readonly number[];
+  /** When given, every gap found is appended here (in time order) until it holds `maxGapsListed`. */
+  gapSink?: GapInterval[];
+  /** Cap for gapSink; default 100. */
+  maxGapsListed?: number;
+}
+
+/** Samples per block of the kernel: small enough to stay in cache between the passes over a block. */
+export const SUMMARY_BLOCK_SAMPLES = 4096;
+
+/** Default cap on the number of gaps listed individually. */
+export const DEFAULT_MAX_GAPS_LISTED = 100;
+
+/** Checks a gap threshold (null or > 0) and a thresholds list (finite values). */
+export function assertSummaryOptions(gapThresholdS: number | null, thresholdsA: readonly number[]): void {
+  if (gapThresholdS !== null) {
+    assertFiniteNumber(gapThresholdS, 'gapThresholdS');
+    if (gapThresholdS <= 0) throw new RangeError(`gapThresholdS must be greater than 0 (got ${gapThresholdS})`);
+  }
+  if (!Array.isArray(thresholdsA)) throw new RangeError('thresholdsA must be an array of numbers');
+  thresholdsA.forEach((h, k) => assertFiniteNumber(h, `thresholdsA[${k}]`));
+}
+
+/** Mutable accumulator shared by the block kernels. */
+interface Accumulator {
+  count: number;
+  mean: number;
+  m2: number;
+  min: number;
+  minIndex: number;
+  max: number;
+  maxIndex: number;
+  covered: number;
+  integral2x: number; // 2 × ∫ i dt (the trapezoid's 1/2 applied at the end)
+  integral2x2: number; // 2 × ∫ i² dt
+  gapCount: number;
+  gapTime: number;
+  longestStart: number;
+  longestEnd: number;
+  timeAbove: Float64Array;
+}
+
+function recordGap(acc: Accumulator, startS: number, endS: number, options: SummariseOptions): void {
+  const length = endS - startS;
+  acc.gapCount += 1;
+  acc.gapTime += length;
+  if (acc.gapCount === 1 || length > acc.longestEnd - acc.longestStart) {
+    acc.longestStart = startS;
+    acc.longestEnd = endS;
+  }
+  const sink = options.gapSink;
+  if (sink && sink.length < (options.maxGapsListed ?? DEFAULT_MAX_GAPS_LISTED)) sink.push({ startS, endS });
+}
+
+/**
+ * Summary of samples a[from, to) at times `axis` (see SampleSummary). One fused pass, block by
+ * block; nothing the size of the input is allocated. Throws a RangeError for an empty or bad range,
+ * a non-finite or out-of-range value (|a| > MAX_ABS_CURRENT_A), or timestamps that are not finite
+ * and strictly increasing, naming the first bad index.
+ */
+export function summarise(
+  axis: TimeAxis,
+  a: SampleArray,
+  from: number,
+  to: number,
+  options: SummariseOptions,
+): SampleSummary {
+  assertSampleArray(a, 'samples');
+  assertIndexRange(from, to, a.length, 'sample range');
+  const thresholds = options.thresholdsA ?? [];
+  assertSummaryOptions(options.gapThresholdS, thresholds);
+  const explicit = axis.kind === 'explicit' ? axis.timesS : null;
+  if (explicit !== null) {
+    if (explicit.length !== a.length) {
+      throw new RangeError(`timestamps has ${explicit.length} elements but there are ${a.length} samples`);
+    }
+    const first = explicit[from] as number;
+    const last = explicit[to - 1] as number;
+    // Strictly increasing (checked in the kernel) and both ends in range means every time is.
+    if (!(Math.abs(first) <= MAX_ABS_TIME_S)) throw new RangeError(`timestamps[${from}] = ${first} is not a finite time within ±${MAX_ABS_TIME_S} s`);
+    if (!(Math.abs(last) <= MAX_ABS_TIME_S)) throwExplicitEnd(explicit, from, to);
+  }
+  const gap = options.gapThresholdS ?? Number.POSITIVE_INFINITY;
+  const acc: Accumulator = {
+    count: 0, mean: 0, m2: 0,
+    min: Number.POSITIVE_INFINITY, minIndex: from, max: Number.NEGATIVE_INFINITY, maxIndex: from,
+    covered: 0, integral2x: 0, integral2x2: 0,
+    gapCount: 0, gapTime: 0, longestStart: 0, longestEnd: 0,
+    timeAbove: new Float64Array(thresholds.length),
+  };
+  for (let b0 = from; b0 < to; b0 += SUMMARY_BLOCK_SAMPLES) {
+    const b1 = Math.min(to, b0 + SUMMARY_BLOCK_SAMPLES);
+    accumulateValues(acc, a, b0, b1);
+    // Intervals ending at samples max(b0, from + 1) .. b1 - 1 (each joins a sample to the one before).
+    const i0 = b0 === from ? from + 1 : b0;
+    if (i0 < b1) {
+      if (explicit === null) accumulateUniformIntervals(acc, a, i0, b1, 1 / (axis as { rateHz: number }).rateHz, gap, axis, options, thresholds);
+      else accumulateExplicitIntervals(acc, a, explicit, i0, b1, gap, options, thresholds);
+    }
+  }
+  return {
+    count: acc.count,
+    meanA: acc.mean,
+    m2A2: acc.m2,
+    minA: acc.min,
+    minTimeS: timeAt(axis, acc.minIndex),
+    maxA: acc.max,
+    maxTimeS: timeAt(axis, acc.maxIndex),
+    firstTimeS: timeAt(axis, from),
+    firstA: a[from] as number,
+    lastTimeS: timeAt(axis, to - 1),
+    lastA: a[to - 1] as number,
+    coveredTimeS: acc.covered,
+    integralAs: acc.integral2x / 2,
+    integralA2s: acc.integral2x2 / 2,
+    gapThresholdS: options.gapThresholdS,
+    gapCount: acc.gapCount,
+    gapTimeS: acc.gapTime,
+    longestGap: acc.gapCount > 0 ? { startS: acc.longestStart, endS: acc.longestEnd } : null,
+    thresholdsA: [...thresholds],
+    timeAboveS: Array.from(acc.timeAbove),
+  };
+}
+
+function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
+  // Either a timestamp inside is bad (found by the scan) or the last one is out of range.
+  for (let i = from + 1; i < to; i++) if (!((t[i] as number) > (t[i - 1] as number))) throwTimestampError(t, i);
+  throw new RangeError(`timestamps[${to - 1}] = ${String(t[to - 1])} is not a finite time within ±${MAX_ABS_TIME_S} s`);
+}
+
+/** Count, mean/M2 (two-pass within the block, Chan merge across blocks), min and max of a block. */
+function accumulateValues(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
+  let sum = 0;
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  let loIndex = b0;
+  let hiIndex = b0;
+  for (let i = b0; i < b1; i++) {
+    const v = a[i] as number;
+    sum += v;
+    if (v < lo) {
+      lo = v;
+      loIndex = i;
+    }
+    if (v > hi) {
+      hi = v;
+      hiIndex = i;
+    }
+  }
+  // NaN makes the sum NaN; ±Infinity or huge values show in lo/hi.
+  if (sum !== sum || lo < -MAX_ABS_CURRENT_A || hi > MAX_ABS_CURRENT_A) {
+    throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+  }
+  const n = b1 - b0;
+  const blockMean = sum / n;
+  let blockM2 = 0;
+  for (let i = b0; i < b1; i++) {
+    const d = (a[i] as number) - blockMean;
+    blockM2 += d * d;
+  }
+  const total = acc.count + n;
+  const delta = blockMean - acc.mean;
+  acc.mean += (delta * n) / total;
+  acc.m2 += blockM2 + (delta * delta * acc.count * n) / total;
+  acc.count = total;
+  if (lo < acc.min) {
+    acc.min = lo;
+    acc.minIndex = loIndex;
+  }
+  if (hi > acc.max) {
+    acc.max = hi;
+    acc.maxIndex = hiIndex;
+  }
+}
+
+/** Trapezoid integrals and time above thresholds for intervals ending at i0..i1-1, uniform spacing dt. */
+function accumulateUniformIntervals(
+  acc: Accumulator,
+  a: SampleArray,
+  i0: number,
+  i1: number,
+  dt: number,
+  gap: number,
+  axis: TimeAxis,
+  options: SummariseOptions,
+  thresholds: readonly number[],
+): void {
+  if (dt > gap) {
+    // A gap threshold below the sample spacing makes every interval a gap.
+    for (let i = i0; i < i1; i++) recordGap(acc, timeAt(axis, i - 1), timeAt(axis, i), options);
+    return;
+  }
+  let previous = a[i0 - 1] as number;
+  let s1 = 0;
+  let s2 = 0;
+  for (let i = i0; i < i1; i++) {
+    const v = a[i] as number;
+    s1 += v + previous;
+    s2 += v * v + previous * previous;
+    previous = v;
+  }
+  acc.integral2x += s1 * dt;
+  acc.integral2x2 += s2 * dt;
+  acc.covered += (i1 - i0) * dt;
+  for (let k = 0; k < thresholds.length; k++) {
+    const h = thresholds[k] as number;
+    let above = 0;
+    let p = a[i0 - 1] as number;
+    for (let i = i0; i < i1; i++) {
+      const v = a[i] as number;
+      if (v > h || p > h) above += timeAboveOnSegment(p, v, dt, h);
+      p = v;
+    }
+    acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
+  }
+}
+
+/** Trapezoid integrals, gaps and time above thresholds for intervals ending at i0..i1-1, explicit times. */
+function accumulateExplicitIntervals(
+  acc: Accumulator,
+  a: SampleArray,
+  t: Float64Array,
+  i0: number,
+  i1: number,
+  gap: number,
+  options: SummariseOptions,
+  thresholds: readonly number[],
+): void {
+  let previous = a[i0 - 1] as number;
+  let previousT = t[i0 - 1] as number;
+  let s1 = 0;
+  let s2 = 0;
+  let covered = 0;
+  let gaps = 0;
+  for (let i = i0; i < i1; i++) {
+    const v = a[i] as number;
+    const ti = t[i] as number;
+    const dt = ti - previousT;
+    if (dt <= gap) {
+      if (!(dt > 0)) throwTimestampError(t, i);
+      s1 += (v + previous) * dt;
+      s2 += (v * v + previous * previous) * dt;
+      covered += dt;
+    } else if (dt === dt) {
+      gaps += 1;
+      recordGap(acc, previousT, ti, options);
+    } else {
+      throwTimestampError(t, i);
+    }
+    previous = v;
+    previousT = ti;
+  }
+  acc.integral2x += s1;
+  acc.integral2x2 += s2;
+  acc.covered += covered;
+  for (let k = 0; k < thresholds.length; k++) {
+    const h = thresholds[k] as number;
+    let above = 0;
+    let p = a[i0 - 1] as number;
+    let pt = t[i0 - 1] as number;
+    for (let i = i0; i < i1; i++) {
+      const v = a[i] as number;
+      const ti = t[i] as number;
+      const dt = ti - pt;
+      if ((v > h || p > h) && (gaps === 0 || dt <= gap)) above += timeAboveOnSegment(p, v, dt, h);
+      p = v;
+      pt = ti;
+    }
+    acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
+  }
+}
