@@ -1,0 +1,88 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import pino, { type Logger } from 'pino';
+import swaggerUi from 'swagger-ui-express';
+import { authenticate } from './auth/authenticate.js';
+import type { Config } from './config/config.js';
+import type { Db } from './db/open.js';
+import { notFoundHandler, problemDetails } from './middleware/problem-details.js';
+import { requestLogging } from './middleware/request-logging.js';
+import { buildOpenApiDocument } from './openapi/document.js';
+import { mountRoutes } from './routes/define-route.js';
+import { v1Routes } from './routes/v1/index.js';
+import { createServices, type Services } from './services/index.js';
+
+export interface AppDeps {
+  logger?: Logger;
+}
+
+export interface HeadroomApp extends Express {
+  locals: Express['locals'] & { services: Services; config: Config; logger: Logger };
+}
+
+/**
+ * Builds the Express app on an open database. Never listens: the process entry (server.ts) or a test
+ * does that, so every test can build its own app on its own database.
+ */
+export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomApp {
+  const logger = deps.logger ?? pino({ level: config.logLevel });
+  const services = createServices(db, config);
+  const app = express() as HeadroomApp;
+  Object.assign(app.locals, { services, config, logger });
+
+  app.disable('x-powered-by');
+  app.set('trust proxy', false);
+  app.set('query parser', 'simple');
+  app.use(requestLogging(logger));
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Swagger UI and the dashboard are served from this origin only; no CDN.
+          'script-src': ["'self'"],
+          'img-src': ["'self'", 'data:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+        },
+      },
+    }),
+  );
+
+  app.get('/healthz', (_req, res) => {
+    res.json({ status: 'ok' });
+  });
+  app.get('/readyz', async (_req, res) => {
+    try {
+      await db.sequelize.query('SELECT 1');
+      res.json({ status: 'ready' });
+    } catch {
+      res.status(503).type('application/problem+json').json({ type: '/problems/unavailable', title: 'Service unavailable', status: 503, detail: 'The database does not answer', instance: '/readyz' });
+    }
+  });
+
+  const document = buildOpenApiDocument();
+  app.get('/api/openapi.json', (_req, res) => {
+    res.json(document);
+  });
+  app.use('/api/docs', swaggerUi.serve, swaggerUi.setup(document, { customSiteTitle: 'Headroom API' }));
+
+  const v1 = express.Router();
+  v1.use(express.json({ limit: config.jsonBodyLimit, type: ['application/json', 'application/*+json'] }));
+  v1.use(authenticate(db));
+  mountRoutes(v1, v1Routes, { services, config });
+  app.use('/api/v1', v1);
+  app.use('/api', notFoundHandler);
+
+  // The built dashboard, with client-side routing: unknown non-API paths get index.html.
+  if (existsSync(path.join(config.dashboardDir, 'index.html'))) {
+    app.use(express.static(config.dashboardDir, { index: 'index.html', maxAge: '1h' }));
+    app.get(/^\/(?!api\/|healthz|readyz).*/, (_req, res) => {
+      res.sendFile(path.join(config.dashboardDir, 'index.html'));
+    });
+  }
+
+  app.use(notFoundHandler);
+  app.use(problemDetails);
+  return app;
+}

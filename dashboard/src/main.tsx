@@ -1,0 +1,16 @@
+import '@fontsource/fira-sans/400.css';
+import '@fontsource/fira-sans/500.css';
+import '@fontsource/fira-sans/600.css';
+import './index.css';
+import { StrictMode } from 'react';
+import { createRoot } from 'react-dom/client';
+import { AppProvider } from './app/provider';
+import { AppRouter } from './app/router';
+
+createRoot(document.getElementById('root')!).render(
+  <StrictMode>
+    <AppProvider>
+      <AppRouter />
+    </AppProvider>
+  </StrictMode>,
+);

@@ -1,0 +1,18 @@
+import { execFileSync } from 'node:child_process';
+import { createRequire } from 'node:module';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+
+const require = createRequire(import.meta.url);
+const sdkDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+describe('generated types', () => {
+  it('when regenerated from openapi.yaml, then they equal the committed file (run `npm run openapi`)', () => {
+    const out = path.join(mkdtempSync(path.join(tmpdir(), 'sdk-gen-')), 'openapi.d.ts');
+    execFileSync(process.execPath, [path.join(path.dirname(require.resolve('openapi-typescript/package.json')), 'bin/cli.js'), '../openapi.yaml', '-o', out], { cwd: sdkDir, stdio: 'pipe' });
+    expect(readFileSync(out, 'utf8')).toBe(readFileSync(path.join(sdkDir, 'src/generated/openapi.d.ts'), 'utf8'));
+  });
+});
