@@ -6,6 +6,7 @@ import pino from 'pino';
 import { createApp, type HeadroomApp } from '../app.js';
 import { testConfig, type Config } from '../config/config.js';
 import { openDatabase, type Db } from '../db/open.js';
+import type { Role } from '../models/user.js';
 
 export interface TestApp {
   app: HeadroomApp;
@@ -13,6 +14,11 @@ export interface TestApp {
   config: Config;
   /** Organisation created for the test. */
   organisationId: string;
+  /**
+   * Headers that authenticate a request as a user of the test organisation with this role (default
+   * engineer), or as an API key with these scopes: `request(t.app).get(url).set(await t.auth('viewer'))`.
+   */
+  auth(who?: Role | { keyScopes: string[] }): Promise<Record<string, string>>;
   close(): Promise<void>;
 }
 
@@ -32,6 +38,11 @@ export async function makeTestApp(options: { file?: boolean; config?: Partial<Co
     db,
     config,
     organisationId,
+    // Walking skeleton: authentication is a placeholder that acts for the first organisation, so no
+    // header is needed yet. The accounts work makes this mint a real session token or API key.
+    async auth(_who: Role | { keyScopes: string[] } = 'engineer') {
+      return {};
+    },
     async close() {
       await db.close();
       if (dir) rmSync(dir, { recursive: true, force: true });
