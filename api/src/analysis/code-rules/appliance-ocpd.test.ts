@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { applianceMaxOcpdA, checkApplianceOcpd } from './appliance-ocpd';
+import { applianceMaxOcpdA, checkApplianceOcpd } from './appliance-ocpd.js';
 
 describe('NEC 422.11(E) single non-motor appliance', () => {
   // source: EC&M Code Q&A, Aug 2020 (trade-facts 6.2 example 9): 4500 W, 240 V water heater → 18.75 A → 28.1 A → 30 A

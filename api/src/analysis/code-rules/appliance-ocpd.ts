@@ -1,6 +1,7 @@
-import { necCitation, type NecEdition } from './nec-edition';
-import { nextStandardRating } from './standard-ratings';
-import { assertNonNegative, assertPositive, formatAmps, limitRule, type RuleResult } from './rule-result';
+import { necCitation, type NecEdition } from './nec-edition.js';
+import { nextStandardRating } from './standard-ratings.js';
+import { assertNonNegative, assertPositive } from '../validation/assert-input.js';
+import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
 /**
  * Rated current below which an unmarked single non-motor appliance may be protected at up to 20 A:

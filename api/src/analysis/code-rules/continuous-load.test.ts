@@ -4,7 +4,7 @@ import {
   checkContinuousLoadDevice,
   minimumStandardDeviceA,
   requiredRatingForLoadA,
-} from './continuous-load';
+} from './continuous-load.js';
 
 describe('NEC 210.19(A) / 210.20(A) continuous loads', () => {
   // source: NEC 210.20(A) + 240.6(A) (trade-facts 6.2 example 8): 16 A continuous → 20 A; 17 A → 21.25 A → 25 A

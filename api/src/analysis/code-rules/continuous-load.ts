@@ -1,6 +1,7 @@
-import { necCitation, necSectionFor, type NecEdition } from './nec-edition';
-import { nextStandardRating } from './standard-ratings';
-import { assertNonNegative, assertPositive, formatAmps, limitRule, type RuleResult } from './rule-result';
+import { necCitation, necSectionFor, type NecEdition } from './nec-edition.js';
+import { nextStandardRating } from './standard-ratings.js';
+import { assertNonNegative, assertPositive } from '../validation/assert-input.js';
+import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
 /**
  * Sizing factor for continuous loads: the device and the conductors must be rated for the noncontinuous

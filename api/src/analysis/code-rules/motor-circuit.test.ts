@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { compressorMaxOcpdA, motorConductorAmpacityA, motorMaxOcpdA } from './motor-circuit';
+import { compressorMaxOcpdA, motorConductorAmpacityA, motorMaxOcpdA } from './motor-circuit.js';
 
 describe('NEC 430.22 / 430.52 / 440.22(A)', () => {
   // source: trade-facts 6.3 example 13 (Table 430.248 FLC 16 A for 1 hp 115 V; 430.22; Table 430.52; 430.52 Ex. 1)

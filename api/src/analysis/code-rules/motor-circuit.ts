@@ -1,5 +1,5 @@
-import { nextStandardRating } from './standard-ratings';
-import { assertPositive } from './rule-result';
+import { nextStandardRating } from './standard-ratings.js';
+import { assertPositive } from '../validation/assert-input.js';
 
 /**
  * Conductor sizing factor for a single continuous-duty motor: 125 % of the table full-load current.

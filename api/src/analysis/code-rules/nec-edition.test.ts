@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assertNecEdition, necSectionFor } from './nec-edition';
+import { assertNecEdition, necSectionFor } from './nec-edition.js';
 
 describe('NEC editions', () => {
   // source: trade-facts 3.0 — 2023 inserted 10 A circuits as 210.23(A), so 15/20 A moved from (A) to (B)

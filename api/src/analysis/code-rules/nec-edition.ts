@@ -1,4 +1,4 @@
-import type { Citation, SourceTag } from './citation';
+import type { Citation, SourceTag } from './citation.js';
 
 /**
  * Editions of the US National Electrical Code (NFPA 70) whose clause numbering Headroom knows.

@@ -6,7 +6,7 @@ import {
   checkTotalWithinRating,
   cordAndPlugLimitA,
   fastenedInPlaceLimitA,
-} from './permissible-loads';
+} from './permissible-loads.js';
 
 describe('NEC 210.23 permissible loads on 15 A and 20 A circuits', () => {
   // source: NEC 2023 210.23(B)(1) / 2020 210.23(A)(1) — one cord-and-plug load ≤ 80 % (trade-facts 6.2 example 4)

@@ -1,5 +1,6 @@
-import { necCitation, necSectionFor, type NecEdition } from './nec-edition';
-import { assertNonNegative, assertPositive, formatAmps, limitRule, type RuleResult } from './rule-result';
+import { necCitation, necSectionFor, type NecEdition } from './nec-edition.js';
+import { assertNonNegative, assertPositive } from '../validation/assert-input.js';
+import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
 /**
  * Share of the branch-circuit rating that any one cord-and-plug-connected load (not fastened in place) may

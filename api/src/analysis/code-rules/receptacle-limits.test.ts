@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkReceptacleLoad, isPermittedReceptacleRating, receptacleMaxLoadA } from './receptacle-limits';
+import { checkReceptacleLoad, isPermittedReceptacleRating, receptacleMaxLoadA } from './receptacle-limits.js';
 
 describe('NEC 210.21(B) receptacles', () => {
   // source: NEC Table 210.21(B)(2) (trade-facts 6.2 example 7): 15 A receptacle on 20 A → 12 A; 20 A → 16 A; 30 on 30 → 24 A

@@ -1,5 +1,6 @@
-import { necCitation, type NecEdition } from './nec-edition';
-import { assertNonNegative, assertPositive, formatAmps, limitRule, type RuleResult } from './rule-result';
+import { necCitation, type NecEdition } from './nec-edition.js';
+import { assertNonNegative, assertPositive } from '../validation/assert-input.js';
+import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
 /**
  * NEC Table 210.21(B)(2): the largest cord-and-plug load per receptacle on a circuit with two or more

@@ -1,4 +1,4 @@
-import type { Citation } from './citation';
+import type { Citation } from './citation.js';
 
 /**
  * How much a failed rule matters:
@@ -25,20 +25,6 @@ export interface RuleResult {
   passed: boolean;
   severity: RuleSeverity;
   message: string;
-}
-
-/** Throws RangeError unless `value` is a finite number ≥ 0 (amps, watts, etc.). */
-export function assertNonNegative(value: number, field: string): void {
-  if (!Number.isFinite(value) || value < 0) {
-    throw new RangeError(`${field} must be a finite number ≥ 0 (got ${String(value)})`);
-  }
-}
-
-/** Throws RangeError unless `value` is a finite number > 0. */
-export function assertPositive(value: number, field: string): void {
-  if (!Number.isFinite(value) || value <= 0) {
-    throw new RangeError(`${field} must be a finite number > 0 (got ${String(value)})`);
-  }
 }
 
 /** Formats amps for messages: at most two decimals, trailing zeros dropped (16 → "16 A", 7.5 → "7.5 A"). */

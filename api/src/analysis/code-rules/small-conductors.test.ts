@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkSmallConductor, smallConductorLimitA } from './small-conductors';
+import { checkSmallConductor, smallConductorLimitA } from './small-conductors.js';
 
 describe('NEC 240.4(D) small conductors', () => {
   // source: NEC 240.4(D) values (trade-facts 3.6, verified)

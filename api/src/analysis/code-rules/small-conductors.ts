@@ -1,5 +1,6 @@
-import { necCitation, type NecEdition } from './nec-edition';
-import { assertPositive, formatAmps, limitRule, type RuleResult } from './rule-result';
+import { necCitation, type NecEdition } from './nec-edition.js';
+import { assertPositive } from '../validation/assert-input.js';
+import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
 /** Conductor material for the small-conductor rule: copper, or aluminum / copper-clad aluminum. */
 export type ConductorMaterial = 'copper' | 'aluminum';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isStandardRating, largestStandardRatingNotAbove, nextStandardRating } from './standard-ratings';
+import { isStandardRating, largestStandardRatingNotAbove, nextStandardRating } from './standard-ratings.js';
 
 describe('NEC 240.6(A) standard ratings', () => {
   // source: NEC 240.6(A) (2020, 2023) list, verified (trade-facts section 2)

@@ -1,4 +1,4 @@
-import { assertNonNegative } from './rule-result';
+import { assertNonNegative } from '../validation/assert-input.js';
 
 /**
  * Standard ampere ratings of fuses and inverse-time circuit breakers, NEC 240.6(A) (2020 and 2023 editions,

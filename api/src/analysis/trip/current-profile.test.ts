@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps, profilePeak, validateCurrentProfile } from './current-profile';
+import { profileFromSteps, profilePeak, validateCurrentProfile } from './current-profile.js';
 
 describe('current profiles', () => {
   it('builds consecutive steps and ends after the last one', () => {

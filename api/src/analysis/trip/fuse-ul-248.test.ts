@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps } from './current-profile';
-import { ul248TimeDelayThermalFamily, ul248TimeDelayTestPoints } from './fuse-ul-248';
-import { assessThermal, meetsTestPoint } from './thermal-family';
+import { profileFromSteps } from './current-profile.js';
+import { ul248TimeDelayThermalFamily, ul248TimeDelayTestPoints } from './fuse-ul-248.js';
+import { assessThermal, meetsTestPoint } from './thermal-family.js';
 
 describe('UL 248 time-delay fuse profile', () => {
   // source: UL 248-9:2015 clause 8.3 — a 250 V time-delay fuse ≤ 30 A takes at least 8 s to open at 5 In (verified)

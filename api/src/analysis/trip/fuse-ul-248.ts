@@ -1,5 +1,5 @@
-import type { Citation } from '../code-rules/citation';
-import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family';
+import type { Citation } from '../code-rules/citation.js';
+import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family.js';
 
 /** Largest rating of the time-delay fuse profile, amps: the 8 s at 5 × point is known only up to 30 A. */
 export const UL_248_TIME_DELAY_MAX_RATING_A = 30;

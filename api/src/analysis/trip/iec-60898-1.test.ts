@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps } from './current-profile';
-import { iecInstantaneousBand, iecThermalFamily, iecThermalTestPoints } from './iec-60898-1';
-import { assessInstantaneous } from './instantaneous-band';
-import { assessThermal, meetsTestPoint } from './thermal-family';
+import { profileFromSteps } from './current-profile.js';
+import { iecInstantaneousBand, iecThermalFamily, iecThermalTestPoints } from './iec-60898-1.js';
+import { assessInstantaneous } from './instantaneous-band.js';
+import { assessThermal, meetsTestPoint } from './thermal-family.js';
 
 const EPSILON = 1e-6;
 

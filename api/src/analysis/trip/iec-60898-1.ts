@@ -1,6 +1,6 @@
-import type { Citation } from '../code-rules/citation';
-import type { InstantaneousBand } from './instantaneous-band';
-import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family';
+import type { Citation } from '../code-rules/citation.js';
+import type { InstantaneousBand } from './instantaneous-band.js';
+import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family.js';
 
 /** Edition of IEC 60898-1 whose values are used: 2015 (Ed. 2.0) + AMD1:2019 (consolidated Ed. 2.1). */
 export const IEC_60898_1_EDITION = '2015+AMD1:2019';

@@ -1,5 +1,5 @@
-import type { Citation } from '../code-rules/citation';
-import type { TripOutcome } from './trip-outcome';
+import type { Citation } from '../code-rules/citation.js';
+import type { TripOutcome } from './trip-outcome.js';
 
 /**
  * The instantaneous (magnetic) trip band of a breaker, in multiples of its rated current In:

@@ -1,12 +1,12 @@
-import type { Citation } from '../code-rules/citation';
-import type { CurrentProfile } from './current-profile';
+import type { Citation } from '../code-rules/citation.js';
+import type { CurrentProfile } from './current-profile.js';
 import {
   constantCurrentTripTimeS,
   runThermalModel,
   type ThermalParameters,
   type ThermalRunOptions,
-} from './thermal-model';
-import type { TripOutcome } from './trip-outcome';
+} from './thermal-model.js';
+import type { TripOutcome } from './trip-outcome.js';
 
 /**
  * One time-current requirement of a product standard, in multiples of the rated current In:

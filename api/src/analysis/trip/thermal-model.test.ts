@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps, type CurrentProfile } from './current-profile';
-import { constantCurrentTripTimeS, runThermalModel, type ThermalParameters } from './thermal-model';
+import { profileFromSteps, type CurrentProfile } from './current-profile.js';
+import { constantCurrentTripTimeS, runThermalModel, type ThermalParameters } from './thermal-model.js';
 
 const model: ThermalParameters = { pickupMultiple: 1.25, timeConstantS: 60 };
 

@@ -1,4 +1,4 @@
-import { validateCurrentProfile, type CurrentProfile } from './current-profile';
+import { validateCurrentProfile, type CurrentProfile } from './current-profile.js';
 
 /**
  * Parameters of a first-order thermal model of a breaker's overload (thermal) element.

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps } from './current-profile';
-import { assessProfileTrip, tripModelFor } from './trip-model';
+import { profileFromSteps } from './current-profile.js';
+import { assessProfileTrip, tripModelFor } from './trip-model.js';
 
 describe('trip models by device kind', () => {
   it('builds every kind and rejects unknown kinds and out-of-scope ratings', () => {

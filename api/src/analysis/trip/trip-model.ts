@@ -1,16 +1,16 @@
-import { profilePeak, type CurrentProfile } from './current-profile';
-import { assertDeviceKind, type DeviceKind } from './device-kind';
-import { ul248TimeDelayThermalFamily } from './fuse-ul-248';
-import { iecInstantaneousBand, iecThermalFamily, IEC_60898_1_REFERENCE_AMBIENT_C } from './iec-60898-1';
+import { profilePeak, type CurrentProfile } from './current-profile.js';
+import { assertDeviceKind, type DeviceKind } from './device-kind.js';
+import { ul248TimeDelayThermalFamily } from './fuse-ul-248.js';
+import { iecInstantaneousBand, iecThermalFamily, IEC_60898_1_REFERENCE_AMBIENT_C } from './iec-60898-1.js';
 import {
   assessInstantaneous,
   type InstantaneousAssessment,
   type InstantaneousBand,
   type InstantaneousBasis,
-} from './instantaneous-band';
-import { assessThermal, type ThermalAssessment, type ThermalFamily } from './thermal-family';
-import { worseTripOutcome, type TripOutcome } from './trip-outcome';
-import { naInstantaneousBand, ul489ThermalFamily } from './ul-489';
+} from './instantaneous-band.js';
+import { assessThermal, type ThermalAssessment, type ThermalFamily } from './thermal-family.js';
+import { worseTripOutcome, type TripOutcome } from './trip-outcome.js';
+import { naInstantaneousBand, ul489ThermalFamily } from './ul-489.js';
 
 /**
  * The time-current model of one overcurrent device: its instantaneous band (null for fuses, which have

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { profileFromSteps } from './current-profile';
-import { assessInstantaneous } from './instantaneous-band';
-import { assessThermal, meetsTestPoint } from './thermal-family';
-import { naInstantaneousBand, ul489TestPoints, ul489ThermalFamily } from './ul-489';
+import { profileFromSteps } from './current-profile.js';
+import { assessInstantaneous } from './instantaneous-band.js';
+import { assessThermal, meetsTestPoint } from './thermal-family.js';
+import { naInstantaneousBand, ul489TestPoints, ul489ThermalFamily } from './ul-489.js';
 
 const constant = (currentA: number, durationS: number) => profileFromSteps([{ currentA, durationS }]);
 

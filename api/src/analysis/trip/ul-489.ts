@@ -1,6 +1,6 @@
-import type { Citation } from '../code-rules/citation';
-import type { InstantaneousBand } from './instantaneous-band';
-import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family';
+import type { Citation } from '../code-rules/citation.js';
+import type { InstantaneousBand } from './instantaneous-band.js';
+import { fitThermalFamily, type ThermalFamily, type ThermalTestPoint } from './thermal-family.js';
 
 /**
  * Edition of UL 489 whose calibration points were seen: 10th edition (2002, also NEMA AB 1-2002). Later
