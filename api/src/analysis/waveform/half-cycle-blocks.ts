@@ -56,6 +56,48 @@ export interface HalfCycleBlocks {
   peakIndex: number;
 }
 
+/** Sums over one segment of a waveform (A², A, A, A and a sample index). */
+export interface SegmentSums {
+  sumSquares: number;
+  sum: number;
+  sumAbs: number;
+  maxAbs: number;
+  /** Index of the first sample reaching maxAbs. */
+  maxAbsIndex: number;
+}
+
+/**
+ * Σ i², Σ i, Σ |i| and max |i| (with its first index) over a[b0, b1), written into `out` (returned).
+ * Validates on the way: a non-finite sample or one beyond ±MAX_ABS_CURRENT_A is a RangeError
+ * naming its index. The inner loop of every pass over raw waveform samples.
+ */
+export function sumSegment(a: SampleArray, b0: number, b1: number, out: SegmentSums): SegmentSums {
+  let s2 = 0;
+  let s1 = 0;
+  let sa = 0;
+  let mx = -1;
+  let mi = b0;
+  for (let i = b0; i < b1; i++) {
+    const v = a[i] as number;
+    const m = Math.abs(v);
+    s2 += v * v;
+    s1 += v;
+    sa += m;
+    if (m > mx) {
+      mx = m;
+      mi = i;
+    }
+  }
+  // NaN poisons s1; ±Infinity and out-of-range values show in mx.
+  if (s1 !== s1 || mx > MAX_ABS_CURRENT_A) throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+  out.sumSquares = s2;
+  out.sum = s1;
+  out.sumAbs = sa;
+  out.maxAbs = mx;
+  out.maxAbsIndex = mi;
+  return out;
+}
+
 /**
  * Cuts `a` (amperes, uniformly sampled at `sampleRateHz` from `startS`) into half-cycle blocks of
  * the `mainsFrequencyHz` fundamental and sums each (see the file comment). One pass; validates the
@@ -93,42 +135,26 @@ export function halfCycleBlocks(
   let totalSumAbs = 0;
   let peakAbsA = 0;
   let peakIndex = 0;
+  const segment: SegmentSums = { sumSquares: 0, sum: 0, sumAbs: 0, maxAbs: 0, maxAbsIndex: 0 };
   for (let k = 0; k <= blockCount; k++) {
     // k === blockCount is the trailing partial block (maybe empty): totals only.
     const b0 = boundaries[Math.min(k, blockCount)] as number;
     const b1 = k < blockCount ? (boundaries[k + 1] as number) : n;
     if (b0 >= b1) continue;
-    let s2 = 0;
-    let s1 = 0;
-    let sa = 0;
-    let mx = -1;
-    let mi = b0;
-    for (let i = b0; i < b1; i++) {
-      const v = a[i] as number;
-      const m = Math.abs(v);
-      s2 += v * v;
-      s1 += v;
-      sa += m;
-      if (m > mx) {
-        mx = m;
-        mi = i;
-      }
-    }
-    // NaN poisons s1; ±Infinity and out-of-range values show in mx.
-    if (s1 !== s1 || mx > MAX_ABS_CURRENT_A) throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+    const seg = sumSegment(a, b0, b1, segment);
     if (k < blockCount) {
-      sumSquares[k] = s2;
-      sums[k] = s1;
-      sumAbs[k] = sa;
-      maxAbs[k] = mx;
-      maxAbsIndex[k] = mi;
+      sumSquares[k] = seg.sumSquares;
+      sums[k] = seg.sum;
+      sumAbs[k] = seg.sumAbs;
+      maxAbs[k] = seg.maxAbs;
+      maxAbsIndex[k] = seg.maxAbsIndex;
     }
-    totalSumSquares += s2;
-    totalSum += s1;
-    totalSumAbs += sa;
-    if (mx > peakAbsA) {
-      peakAbsA = mx;
-      peakIndex = mi;
+    totalSumSquares += seg.sumSquares;
+    totalSum += seg.sum;
+    totalSumAbs += seg.sumAbs;
+    if (seg.maxAbs > peakAbsA) {
+      peakAbsA = seg.maxAbs;
+      peakIndex = seg.maxAbsIndex;
     }
   }
   return {

@@ -9,7 +9,7 @@
  */
 
 import { assertFiniteNumber, assertIndexRange, assertSampleArray, type SampleArray } from '../validation/assert-input.js';
-import type { HalfCycleBlocks } from './half-cycle-blocks.js';
+import { sumSegment, type HalfCycleBlocks } from './half-cycle-blocks.js';
 
 /** Shape figures of a waveform segment; the ratios are null when their denominator is 0. */
 export interface WaveformShape {
@@ -53,28 +53,12 @@ function shapeFromSums(n: number, sumSquares: number, sum: number, sumAbs: numbe
   };
 }
 
-/** Shape figures of a[from, to) in one pass. RangeError for an empty range or non-finite samples. */
+/** Shape figures of a[from, to) in one pass. RangeError for an empty range or bad samples (naming the index). */
 export function waveformShape(a: SampleArray, from = 0, to: number = a.length): WaveformShape {
   assertSampleArray(a, 'samples');
   assertIndexRange(from, to, a.length, 'sample range');
-  let s2 = 0;
-  let s1 = 0;
-  let sa = 0;
-  let peak = -1;
-  let peakIndex = from;
-  for (let i = from; i < to; i++) {
-    const v = a[i] as number;
-    const m = Math.abs(v);
-    s2 += v * v;
-    s1 += v;
-    sa += m;
-    if (m > peak) {
-      peak = m;
-      peakIndex = i;
-    }
-  }
-  if (!Number.isFinite(s2)) throw new RangeError('samples must be finite numbers');
-  return shapeFromSums(to - from, s2, s1, sa, peak, peakIndex);
+  const seg = sumSegment(a, from, to, { sumSquares: 0, sum: 0, sumAbs: 0, maxAbs: 0, maxAbsIndex: 0 });
+  return shapeFromSums(to - from, seg.sumSquares, seg.sum, seg.sumAbs, seg.maxAbs, seg.maxAbsIndex);
 }
 
 /** Shape figures of the whole record from its half-cycle blocks' totals (no pass over the samples). */
