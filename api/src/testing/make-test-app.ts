@@ -7,6 +7,8 @@ import { createApp, type HeadroomApp } from '../app.js';
 import { testConfig, type Config } from '../config/config.js';
 import { openDatabase, type Db } from '../db/open.js';
 import type { Role } from '../models/user.js';
+import { credentialCache } from './credentials.js';
+import { createScratchDatabase, TEST_DATABASE_URL } from './postgres-scratch-database.js';
 
 export interface TestApp {
   app: HeadroomApp;
@@ -17,8 +19,10 @@ export interface TestApp {
   /**
    * Headers that authenticate a request as a user of the test organisation with this role (default
    * engineer), or as an API key with these scopes: `request(t.app).get(url).set(await t.auth('viewer'))`.
+   * The user or key is real (a session token or an `hrk_` key) and made once per role or scope set;
+   * `{ fresh: true }` makes a new one (for tests that sign out, revoke or deactivate).
    */
-  auth(who?: Role | { keyScopes: string[] }): Promise<Record<string, string>>;
+  auth(who?: Role | { keyScopes: string[] }, options?: { fresh?: boolean }): Promise<Record<string, string>>;
   close(): Promise<void>;
 }
 
@@ -28,23 +32,29 @@ export interface TestApp {
  */
 export async function makeTestApp(options: { file?: boolean; config?: Partial<Config> } = {}): Promise<TestApp> {
   const dir = options.file ? mkdtempSync(path.join(tmpdir(), 'headroom-test-')) : undefined;
-  const config = testConfig({ ...(dir ? { databaseFile: path.join(dir, 'test.sqlite') } : {}), ...options.config });
-  const db = await openDatabase({ databaseFile: config.databaseFile });
+  // On a PostgreSQL test run (TEST_DATABASE_URL), every app gets its own scratch database instead.
+  const scratch = TEST_DATABASE_URL ? await createScratchDatabase(TEST_DATABASE_URL) : undefined;
+  const config = testConfig({
+    ...(dir ? { databaseFile: path.join(dir, 'test.sqlite') } : {}),
+    ...(scratch ? { databaseUrl: scratch.url } : {}),
+    ...options.config,
+  });
+  const db = await openDatabase({ databaseFile: config.databaseFile, databaseUrl: config.databaseUrl });
   const organisationId = randomUUID();
   await db.models.Organisation.create({ id: organisationId, name: 'Test organisation' });
   const app = createApp(config, db, { logger: pino({ level: 'silent' }) });
+  const credentials = credentialCache(app.locals.services, organisationId);
   return {
     app,
     db,
     config,
     organisationId,
-    // Walking skeleton: authentication is a placeholder that acts for the first organisation, so no
-    // header is needed yet. The accounts work makes this mint a real session token or API key.
-    async auth(_who: Role | { keyScopes: string[] } = 'engineer') {
-      return {};
+    auth(who: Role | { keyScopes: string[] } = 'engineer', options?: { fresh?: boolean }) {
+      return credentials(who, options);
     },
     async close() {
       await db.close();
+      await scratch?.drop();
       if (dir) rmSync(dir, { recursive: true, force: true });
     },
   };
