@@ -1,0 +1,184 @@
+import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { afterEach, describe, expect, it } from 'vitest';
+import { createClient, unwrap } from './client.js';
+import { HeadroomConnectionError, HeadroomServerError, parseRetryAfter } from './errors.js';
+import { backoffDelayMs, DEFAULT_RETRY, resolveRetry, retryDelayMs, retryingFetch } from './retry.js';
+
+/** One scripted answer per request: a status (with headers) or a dropped connection. */
+type Step = { status: number; headers?: Record<string, string>; body?: unknown } | 'drop' | 'hang';
+
+interface Recorded {
+  method: string;
+  url: string;
+  idempotencyKey: string | undefined;
+  body: string;
+}
+
+let server: Server | undefined;
+
+afterEach(async () => {
+  server?.closeAllConnections();
+  await new Promise((resolve) => server?.close(resolve) ?? resolve(undefined));
+  server = undefined;
+});
+
+/** A scripted server on 127.0.0.1 that answers each request with the next step (the last one repeats). */
+async function scriptedServer(steps: Step[]): Promise<{ baseUrl: string; requests: Recorded[] }> {
+  const requests: Recorded[] = [];
+  server = createServer((req: IncomingMessage, res: ServerResponse) => {
+    const chunks: Buffer[] = [];
+    req.on('data', (c: Buffer) => chunks.push(c));
+    req.on('end', () => {
+      requests.push({ method: req.method ?? '', url: req.url ?? '', idempotencyKey: req.headers['idempotency-key'] as string | undefined, body: Buffer.concat(chunks).toString() });
+      const step = steps[Math.min(requests.length - 1, steps.length - 1)]!;
+      if (step === 'drop') return req.socket.destroy();
+      if (step === 'hang') return;
+      res.writeHead(step.status, { 'Content-Type': step.status >= 400 ? 'application/problem+json' : 'application/json', ...step.headers });
+      res.end(JSON.stringify(step.body ?? (step.status >= 400 ? { type: '/problems/x', title: 'Scripted', status: step.status, detail: `scripted ${step.status}` } : { items: [], nextCursor: null, total: 0 })));
+    });
+  });
+  await new Promise<void>((resolve) => server!.listen(0, '127.0.0.1', resolve));
+  return { baseUrl: `http://127.0.0.1:${(server!.address() as AddressInfo).port}`, requests };
+}
+
+const fast = { initialDelayMs: 1, maxDelayMs: 5, maxRetries: 3 };
+const newSite = { name: 'Quay Road workshop' };
+
+describe('backoff', () => {
+  it('when retries go on, then the delay doubles from the initial delay up to the cap, with jitter of half to all of it', () => {
+    // common practice, no source: capped exponential backoff with "equal jitter"
+    const options = { ...DEFAULT_RETRY, initialDelayMs: 100, maxDelayMs: 1000 };
+    expect([0, 1, 2, 3, 4].map((n) => backoffDelayMs(n, options, () => 0.999999))).toEqual([100, 200, 400, 800, 1000]);
+    expect([0, 1, 2, 3, 4].map((n) => backoffDelayMs(n, options, () => 0))).toEqual([50, 100, 200, 400, 500]);
+  });
+
+  it('when Retry-After is delta-seconds or an HTTP date, then it reads as milliseconds', () => {
+    // source: RFC 9110 §10.2.3 (Retry-After = HTTP-date / delay-seconds)
+    expect(parseRetryAfter('120')).toBe(120_000);
+    expect(parseRetryAfter('Wed, 21 Oct 2015 07:28:30 GMT', Date.parse('Wed, 21 Oct 2015 07:28:00 GMT'))).toBe(30_000);
+    expect(parseRetryAfter(null)).toBeUndefined();
+    expect(parseRetryAfter('soon')).toBeUndefined();
+  });
+
+  it('when per-request options are given, then they override the client options, and false turns retrying off', () => {
+    expect(resolveRetry({ maxRetries: 4 }).maxRetries).toBe(4);
+    expect(resolveRetry({ maxRetries: 4 }, { maxRetries: 1 }).maxRetries).toBe(1);
+    expect(resolveRetry({ maxRetries: 4 }, false).maxRetries).toBe(0);
+    expect(resolveRetry(false).maxRetries).toBe(0);
+  });
+});
+
+describe('retry decision', () => {
+  const options = { ...DEFAULT_RETRY, initialDelayMs: 100, maxDelayMs: 100 };
+  const base = { method: 'GET', hasIdempotencyKey: false, retriesDone: 0, options, callerAborted: false };
+  const answer = (status: number, headers: Record<string, string> = {}) => ({ response: new Response(null, { status, headers }) });
+
+  it.each([
+    ['a network error on GET', { error: new TypeError('fetch failed') }, base, true],
+    ['503 on GET', answer(503), base, true],
+    ['500, 502, 504', answer(502), base, true],
+    ['400', answer(400), base, false],
+    ['404', answer(404), base, false],
+    ['a conflict without Retry-After (final)', answer(409), base, false],
+    ['a conflict with Retry-After (transient)', answer(409, { 'Retry-After': '1' }), base, true],
+    ['a network error on POST without an Idempotency-Key', { error: new TypeError('fetch failed') }, { ...base, method: 'POST' }, false],
+    ['503 on PATCH without an Idempotency-Key', answer(503), { ...base, method: 'PATCH' }, false],
+    ['a network error on POST with an Idempotency-Key', { error: new TypeError('fetch failed') }, { ...base, method: 'POST', hasIdempotencyKey: true }, true],
+    ['retries used up', answer(503), { ...base, retriesDone: 2 }, false],
+    ['the caller aborted', { error: new TypeError('aborted') }, { ...base, callerAborted: true }, false],
+  ])('when %s, then retried is %s', (_name, outcome, context, retried) => {
+    expect(retryDelayMs(outcome, context) !== undefined).toBe(retried);
+  });
+
+  it('when 429 carries Retry-After, then the wait is that long, and a wait beyond the limit is not taken', () => {
+    expect(retryDelayMs(answer(429, { 'Retry-After': '3' }), base)).toBe(3000);
+    expect(retryDelayMs(answer(429, { 'Retry-After': '3600' }), base)).toBeUndefined();
+  });
+});
+
+describe('retrying client against a scripted server on 127.0.0.1', () => {
+  it('when the connection drops, then 503, then 429, then the POST succeeds with one Idempotency-Key throughout', async () => {
+    const { baseUrl, requests } = await scriptedServer(['drop', { status: 503 }, { status: 429, headers: { 'Retry-After': '0' } }, { status: 201, body: { id: 's1' } }]);
+    const client = createClient({ baseUrl, retry: fast });
+    const site = await unwrap(client.POST('/sites', { body: newSite }));
+    expect(site).toEqual({ id: 's1' });
+    expect(requests).toHaveLength(4);
+    const keys = new Set(requests.map((r) => r.idempotencyKey));
+    expect(keys.size).toBe(1);
+    expect([...keys][0]).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
+    expect(new Set(requests.map((r) => r.body))).toEqual(new Set([JSON.stringify(newSite)]));
+  });
+
+  it('when the caller supplies an Idempotency-Key, then every attempt carries it', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 503 }, { status: 201, body: { id: 's1' } }]);
+    const client = createClient({ baseUrl, retry: fast });
+    await unwrap(client.POST('/sites', { body: newSite, headers: { 'Idempotency-Key': 'my-key-1' } }));
+    expect(requests.map((r) => r.idempotencyKey)).toEqual(['my-key-1', 'my-key-1']);
+  });
+
+  it('when two POSTs are made, then each has its own key', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 201, body: { id: 's1' } }]);
+    const client = createClient({ baseUrl, retry: fast });
+    await unwrap(client.POST('/sites', { body: newSite }));
+    await unwrap(client.POST('/sites', { body: newSite }));
+    expect(requests[0]!.idempotencyKey).not.toBe(requests[1]!.idempotencyKey);
+  });
+
+  it('when the server never recovers, then the call fails with the last answer as a typed error', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 503 }]);
+    const client = createClient({ baseUrl, retry: fast });
+    const error = await unwrap(client.GET('/sites')).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(HeadroomServerError);
+    expect((error as HeadroomServerError).problem.detail).toBe('scripted 503');
+    expect(requests).toHaveLength(4);
+  });
+
+  it('when every attempt loses its connection, then a HeadroomConnectionError with status 0 says how many attempts were made', async () => {
+    const { baseUrl, requests } = await scriptedServer(['drop']);
+    const client = createClient({ baseUrl, retry: { ...fast, maxRetries: 2 } });
+    const error = await client.GET('/sites').catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(HeadroomConnectionError);
+    expect((error as HeadroomConnectionError).status).toBe(0);
+    expect((error as Error).message).toMatch(/after 3 attempts/);
+    expect(requests).toHaveLength(3);
+  });
+
+  it('when an attempt gets no answer in time, then it is abandoned and retried', async () => {
+    const { baseUrl, requests } = await scriptedServer(['hang', { status: 200 }]);
+    const client = createClient({ baseUrl, retry: { ...fast, attemptTimeoutMs: 200 } });
+    await expect(unwrap(client.GET('/sites'))).resolves.toEqual({ items: [], nextCursor: null, total: 0 });
+    expect(requests).toHaveLength(2);
+  });
+
+  it('when a request says retry: false, then only one attempt is made', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 503 }, { status: 200 }]);
+    const client = createClient({ baseUrl, retry: fast });
+    await expect(unwrap(client.GET('/sites', { retry: false }))).rejects.toBeInstanceOf(HeadroomServerError);
+    expect(requests).toHaveLength(1);
+  });
+
+  it('when a 400 comes back, then it is not retried', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 400 }, { status: 201 }]);
+    const client = createClient({ baseUrl, retry: fast });
+    await expect(unwrap(client.POST('/sites', { body: newSite }))).rejects.toMatchObject({ status: 400 });
+    expect(requests).toHaveLength(1);
+  });
+
+  it('when a POST has no Idempotency-Key (raw retrying fetch), then a dropped connection is not retried', async () => {
+    const { baseUrl, requests } = await scriptedServer(['drop', { status: 201 }]);
+    const send = retryingFetch(globalThis.fetch, fast);
+    await expect(send(new Request(`${baseUrl}/api/v1/sites`, { method: 'POST', body: '{}' }))).rejects.toBeInstanceOf(HeadroomConnectionError);
+    expect(requests).toHaveLength(1);
+  });
+
+  it('when the caller aborts during the backoff, then the call stops with the abort and no further attempt', async () => {
+    const { baseUrl, requests } = await scriptedServer([{ status: 503 }, { status: 200 }]);
+    const client = createClient({ baseUrl, retry: { maxRetries: 3, initialDelayMs: 10_000, maxDelayMs: 10_000 } });
+    const controller = new AbortController();
+    const call = client.GET('/sites', { signal: controller.signal });
+    setTimeout(() => controller.abort(), 100);
+    await expect(call).rejects.toMatchObject({ name: 'AbortError' });
+    expect(requests).toHaveLength(1);
+  });
+});
