@@ -2,8 +2,10 @@ import { necCitation, type NecEdition } from './nec-edition.js';
 import { assertPositive } from '../validation/assert-input.js';
 import { formatAmps, limitRule, type RuleResult } from './rule-result.js';
 
-/** Conductor material for the small-conductor rule: copper, or aluminum / copper-clad aluminum. */
-export type ConductorMaterial = 'copper' | 'aluminum';
+/** Conductor material for the small-conductor rule: `cu` copper, `al` aluminum or copper-clad aluminum. */
+export type ConductorMaterial = 'cu' | 'al';
+
+const MATERIAL_NAMES: Readonly<Record<ConductorMaterial, string>> = { cu: 'copper', al: 'aluminum' };
 
 /** A branch-circuit conductor: AWG size as written (e.g. `'12'`) and material. */
 export interface Conductor {
@@ -19,9 +21,14 @@ export interface Conductor {
  * 10 AWG Al/CCA 25 A.
  */
 export const SMALL_CONDUCTOR_LIMITS_A: Readonly<Record<ConductorMaterial, Readonly<Record<string, number>>>> = {
-  copper: { '18': 7, '16': 10, '14': 15, '12': 20, '10': 30 },
-  aluminum: { '12': 15, '10': 25 },
+  cu: { '18': 7, '16': 10, '14': 15, '12': 20, '10': 30 },
+  al: { '12': 15, '10': 25 },
 };
+
+/** The AWG number of a size as written: `'12 AWG'` and `'12'` are both `'12'`. */
+function awgNumber(sizeAwg: string): string {
+  return sizeAwg.trim().replace(/\s*AWG$/i, '');
+}
 
 /**
  * The 240.4(D) device limit for `conductor`, or null when 240.4(D) does not cover that size and material
@@ -29,9 +36,8 @@ export const SMALL_CONDUCTOR_LIMITS_A: Readonly<Record<ConductorMaterial, Readon
  */
 export function smallConductorLimitA(conductor: Conductor): number | null {
   const table = SMALL_CONDUCTOR_LIMITS_A[conductor.material];
-  if (table === undefined) throw new RangeError(`conductor.material must be copper or aluminum`);
-  const size = conductor.sizeAwg.trim().replace(/\s*AWG$/i, '');
-  return table[size] ?? null;
+  if (table === undefined) throw new RangeError(`conductor.material must be cu or al`);
+  return table[awgNumber(conductor.sizeAwg)] ?? null;
 }
 
 /**
@@ -44,7 +50,7 @@ export function checkSmallConductor(ratingA: number, conductor: Conductor, editi
   assertPositive(ratingA, 'ratingA');
   const limitA = smallConductorLimitA(conductor);
   if (limitA === null) return null;
-  const label = `${conductor.sizeAwg} AWG ${conductor.material}`;
+  const label = `${awgNumber(conductor.sizeAwg)} AWG ${MATERIAL_NAMES[conductor.material]}`;
   return limitRule({
     ruleId: 'nec-240.4-small-conductor',
     citation: necCitation(edition, '240.4(D)'),

@@ -1,15 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import { profileFromSteps } from './current-profile.js';
+import { DEVICE_KINDS } from './device-kind.js';
 import { assessProfileTrip, tripModelFor } from './trip-model.js';
 
 describe('trip models by device kind', () => {
   it('builds every kind and rejects unknown kinds and out-of-scope ratings', () => {
-    for (const kind of ['iec-b', 'iec-c', 'iec-d', 'na-thermal-magnetic', 'fuse-ul-248-time-delay'] as const) {
+    for (const kind of DEVICE_KINDS) {
       const model = tripModelFor(kind, 20);
       expect(model.thermal.members.length).toBe(9);
       expect(model.notes.length).toBeGreaterThan(0);
     }
     expect(tripModelFor('fuse-ul-248-time-delay', 20).instantaneous).toBeNull();
+    expect(tripModelFor('fuse', 20).notes[0]).toMatch(/class is not recorded/);
     expect(() => tripModelFor('iec-z' as never, 20)).toThrow(RangeError);
     expect(() => tripModelFor('iec-c', 200)).toThrow(RangeError);
   });

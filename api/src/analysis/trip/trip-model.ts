@@ -70,17 +70,25 @@ export function tripModelFor(deviceKind: DeviceKind, ratingA: number): TripModel
         ],
       };
     case 'fuse-ul-248-time-delay':
+    case 'fuse': {
+      const notes = [
+        'A fuse has one melting curve and no separate instantaneous element; the band is a first-order model through UL 248 test points (135 % and 200 % from memory, 8 s at 500 % verified).',
+        'The fuse maker’s curve governs.',
+      ];
+      if (deviceKind === 'fuse') {
+        notes.unshift(
+          'The fuse class is not recorded: it is modelled as a 250 V time-delay fuse; a non-time-delay fuse opens much sooner on start-up currents.',
+        );
+      }
       return {
         deviceKind,
         ratingA,
-        label: `Time-delay fuse, ${ratingA} A, 250 V (UL 248)`,
+        label: `${deviceKind === 'fuse' ? 'Fuse (class not recorded; modelled as time-delay)' : 'Time-delay fuse'}, ${ratingA} A, 250 V (UL 248)`,
         instantaneous: null,
         thermal: ul248TimeDelayThermalFamily(ratingA),
-        notes: [
-          'A fuse has one melting curve and no separate instantaneous element; the band is a first-order model through UL 248 test points (135 % and 200 % from memory, 8 s at 500 % verified).',
-          'The fuse maker’s curve governs.',
-        ],
+        notes,
       };
+    }
   }
 }
 
