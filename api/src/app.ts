@@ -69,7 +69,7 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
 
   const v1 = express.Router();
   v1.use(express.json({ limit: config.jsonBodyLimit, type: ['application/json', 'application/*+json'] }));
-  v1.use(authenticate(db));
+  v1.use(authenticate(services));
   mountRoutes(v1, v1Routes, { services, config });
   app.use('/api/v1', v1);
   app.use('/api', notFoundHandler);

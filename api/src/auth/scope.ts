@@ -7,6 +7,8 @@ export interface Scope {
     | { kind: 'user'; id: string; role: Role; sessionId?: string }
     | { kind: 'key'; id: string; scopes: string[]; createdByUserId?: string }
     | { kind: 'system'; id: 'system' };
+  /** The caller's network address, for the audit log. */
+  address?: string;
 }
 
 declare module 'express-serve-static-core' {

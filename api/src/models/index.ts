@@ -1,7 +1,11 @@
 import type { Sequelize } from 'sequelize';
+import { ApiKey, ApiKeyAddress } from './api-key.js';
+import { AuditEvent } from './audit-event.js';
 import { Circuit } from './circuit.js';
 import { Load } from './load.js';
+import { OneTimeToken } from './one-time-token.js';
 import { Organisation } from './organisation.js';
+import { Session } from './session.js';
 import { Site } from './site.js';
 import { Trace } from './trace.js';
 import { User } from './user.js';
@@ -18,6 +22,11 @@ export function initModels(sequelize: Sequelize) {
     Circuit: Circuit.initModel(sequelize),
     Load: Load.initModel(sequelize),
     Trace: Trace.initModel(sequelize),
+    Session: Session.initModel(sequelize),
+    ApiKey: ApiKey.initModel(sequelize),
+    ApiKeyAddress: ApiKeyAddress.initModel(sequelize),
+    OneTimeToken: OneTimeToken.initModel(sequelize),
+    AuditEvent: AuditEvent.initModel(sequelize),
   };
   return models;
 }

@@ -1,13 +1,19 @@
 import type { Config } from '../config/config.js';
 import type { Db } from '../db/open.js';
+import { createApiKeysService } from './api-keys.js';
+import { createAuditService } from './audit.js';
 import { createCircuitsService } from './circuits.js';
+import { createSessionsService } from './sessions.js';
 import { createSitesService } from './sites.js';
 
 /** Every service, built once per app. Services are the only users of the models. */
 export function createServices(db: Db, _config: Config) {
+  const audit = createAuditService(db);
+  const sessions = createSessionsService(db);
+  const apiKeys = createApiKeysService(db, audit);
   const sites = createSitesService(db);
   const circuits = createCircuitsService(db, sites);
-  return { db, sites, circuits };
+  return { db, audit, sessions, apiKeys, sites, circuits };
 }
 
 export type Services = ReturnType<typeof createServices>;
