@@ -122,3 +122,18 @@ export function indexRangeForWindow(
   };
   return { from: firstAtOrAfter(fromS, true), to: firstAtOrAfter(toS, false) };
 }
+
+/**
+ * First index in [from, to) whose time is after `limitS` (`to` when none is), by binary search.
+ * Used to cut on-periods at a time.
+ */
+export function indexAfterTime(axis: TimeAxis, from: number, to: number, limitS: number): number {
+  let lo = from;
+  let hi = to;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (timeAt(axis, mid) > limitS) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
