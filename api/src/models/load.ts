@@ -16,6 +16,10 @@ export class Load extends Model<InferAttributes<Load>, InferCreationAttributes<L
   declare continuous: boolean;
   declare motorHp: number | null;
   declare lockedRotorCode: string | null;
+  /** Start-up peak (RMS, amps) from the nameplate or maker, e.g. a compressor's locked-rotor amps. */
+  declare startPeakA: CreationOptional<number | null>;
+  /** How long the start-up peak lasts, seconds. */
+  declare startDurationS: CreationOptional<number | null>;
   declare notes: string | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -34,6 +38,8 @@ export class Load extends Model<InferAttributes<Load>, InferCreationAttributes<L
         continuous: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         motorHp: { type: DataTypes.DOUBLE, allowNull: true },
         lockedRotorCode: { type: DataTypes.STRING(1), allowNull: true },
+        startPeakA: { type: DataTypes.DOUBLE, allowNull: true },
+        startDurationS: { type: DataTypes.DOUBLE, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

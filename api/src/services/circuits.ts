@@ -3,6 +3,7 @@ import type { Scope } from '../auth/scope.js';
 import type { Db } from '../db/open.js';
 import { notFound } from '../errors/problem.js';
 import type { Circuit, ConductorMaterial, DeviceKind } from '../models/circuit.js';
+import { circuitWarnings, type CircuitWarning } from './circuit-warnings.js';
 import { afterCursor, toPage, type Page } from './pagination.js';
 import type { SitesService } from './sites.js';
 
@@ -26,6 +27,8 @@ export interface CircuitView extends Omit<CircuitInput, 'conductorSize' | 'condu
   conductorMaterial: ConductorMaterial | null;
   notes: string | null;
   loadCount: number;
+  /** NEC 240.4(D), 240.6(A) / IEC 60898-1 ratings and trip-model scope; never blocks saving. */
+  warnings: CircuitWarning[];
   createdAt: string;
   updatedAt: string;
 }
@@ -45,6 +48,7 @@ function toView(c: Circuit, loadCount: number): CircuitView {
     necEdition: c.necEdition,
     notes: c.notes,
     loadCount,
+    warnings: circuitWarnings(c),
     createdAt: c.createdAt.toISOString(),
     updatedAt: c.updatedAt.toISOString(),
   };

@@ -3,6 +3,7 @@ import type { Db } from '../db/open.js';
 import { createApiKeysService } from './api-keys.js';
 import { createAuditService } from './audit.js';
 import { createCircuitsService } from './circuits.js';
+import { createLoadsService } from './loads.js';
 import { createSessionsService } from './sessions.js';
 import { createSitesService } from './sites.js';
 
@@ -13,7 +14,8 @@ export function createServices(db: Db, _config: Config) {
   const apiKeys = createApiKeysService(db, audit);
   const sites = createSitesService(db);
   const circuits = createCircuitsService(db, sites);
-  return { db, audit, sessions, apiKeys, sites, circuits };
+  const loads = createLoadsService(db, circuits);
+  return { db, audit, sessions, apiKeys, sites, circuits, loads };
 }
 
 export type Services = ReturnType<typeof createServices>;

@@ -126,6 +126,64 @@ export interface paths {
         patch: operations["updateCircuit"];
         trace?: never;
     };
+    "/circuits/{circuitId}/loads": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * List the loads on a circuit
+         * @description Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["listLoads"];
+        put?: never;
+        /**
+         * Add a load to a circuit
+         * @description A load needs a running figure: nameplate amps, watts (converted at the circuit voltage and power factor) or motor horsepower (NEC Table 430.248), unless traces recorded on it are linked.
+         *
+         *     Permission `write`: roles admin, engineer; API-key scopes none.
+         */
+        post: operations["createLoad"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/loads/{loadId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Get a load
+         * @description Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getLoad"];
+        put?: never;
+        post?: never;
+        /**
+         * Delete a load
+         * @description Traces recorded on the load are kept and lose their link to it.
+         *
+         *     Permission `write`: roles admin, engineer; API-key scopes none.
+         */
+        delete: operations["deleteLoad"];
+        options?: never;
+        head?: never;
+        /**
+         * Update a load
+         * @description The merged load is checked as a whole; `null` clears an optional figure.
+         *
+         *     Permission `write`: roles admin, engineer; API-key scopes none.
+         */
+        patch: operations["updateLoad"];
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -224,6 +282,8 @@ export interface components {
             necEdition: number;
             notes: string | null;
             loadCount: number;
+            /** @description Conductor too small for the device (NEC 240.4(D)), a rating outside NEC 240.6(A) or the IEC 60898-1 preferred values, or a device outside the trip models */
+            warnings: components["schemas"]["CircuitWarning"][];
             /**
              * @description ISO 8601 date-time
              * @example 2026-11-30T09:15:00.000Z
@@ -240,6 +300,32 @@ export interface components {
          * @enum {string}
          */
         DeviceKind: "iec-b" | "iec-c" | "iec-d" | "na-thermal-magnetic" | "fuse";
+        /** @description Something to correct or confirm; never blocks saving */
+        CircuitWarning: {
+            /** @example nec-240.4-small-conductor */
+            ruleId: string;
+            /**
+             * @description The circuit field concerned (JSON Pointer)
+             * @example /conductorSize
+             */
+            pointer: string;
+            message: string;
+            citation: components["schemas"]["Citation"];
+        };
+        /** @description Document, edition and clause a rule rests on (cited, never quoted) */
+        Citation: {
+            /** @example NFPA 70 */
+            code: string;
+            /** @example 2023 */
+            edition: number | string;
+            /** @example 210.23(B)(1) */
+            section: string;
+            /**
+             * @description How sure the fact is: verified in a public copy, from memory, derived by arithmetic, or a rule of thumb
+             * @enum {string}
+             */
+            tag: "verified" | "from memory" | "derived" | "common practice, no source";
+        } | null;
         CircuitCreate: {
             /** @example Kitchen counter, right */
             label: string;
@@ -303,6 +389,151 @@ export interface components {
              */
             necEdition: 2020 | 2023;
             notes?: string | null;
+        };
+        LoadPage: {
+            items: components["schemas"]["Load"][];
+            nextCursor: string | null;
+            total: number;
+        };
+        Load: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            id: string;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            circuitId: string;
+            name: string;
+            nameplateA: number | null;
+            nameplateW: number | null;
+            powerFactor: number | null;
+            /** @enum {string} */
+            connection: "cord-and-plug" | "fastened-in-place";
+            continuous: boolean;
+            motorHp: number | null;
+            lockedRotorCode: string | null;
+            startPeakA: number | null;
+            startDurationS: number | null;
+            notes: string | null;
+            /** @description Traces linked to this load */
+            traceIds: string[];
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            createdAt: string;
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            updatedAt: string;
+        };
+        LoadCreate: {
+            /** @example Stand mixer (20 qt) */
+            name: string;
+            /**
+             * @description Nameplate (rated or running) current, A
+             * @example 9.5
+             */
+            nameplateA?: number | null;
+            /**
+             * @description Nameplate power, W (converted at the circuit voltage and power factor)
+             * @example 1500
+             */
+            nameplateW?: number | null;
+            /**
+             * @description Power factor for watts → amps; 1 (resistive) when omitted
+             * @example 0.85
+             */
+            powerFactor?: number | null;
+            /**
+             * @description Cord-and-plug connected (not fastened in place) or fastened in place (NEC 210.23)
+             * @enum {string}
+             */
+            connection: "cord-and-plug" | "fastened-in-place";
+            /**
+             * @description Maximum current expected to last 3 hours or more (NEC Article 100)
+             * @default false
+             */
+            continuous: boolean;
+            /**
+             * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
+             * @example 0.5
+             */
+            motorHp?: number | null;
+            /**
+             * @description Locked-rotor indicating code letter (NEC 430.7(B))
+             * @example J
+             */
+            lockedRotorCode?: string | null;
+            /**
+             * @description Start-up peak RMS current from the nameplate or maker (e.g. a compressor's LRA), A
+             * @example 52
+             */
+            startPeakA?: number | null;
+            /**
+             * @description How long the start-up peak lasts, s
+             * @example 0.3
+             */
+            startDurationS?: number | null;
+            notes?: string | null;
+            /** @description Traces recorded on this load (sets each trace's loadId; replaces the previous links) */
+            traceIds?: string[];
+        };
+        LoadUpdate: {
+            /** @example Stand mixer (20 qt) */
+            name?: string;
+            /**
+             * @description Nameplate (rated or running) current, A
+             * @example 9.5
+             */
+            nameplateA?: number | null;
+            /**
+             * @description Nameplate power, W (converted at the circuit voltage and power factor)
+             * @example 1500
+             */
+            nameplateW?: number | null;
+            /**
+             * @description Power factor for watts → amps; 1 (resistive) when omitted
+             * @example 0.85
+             */
+            powerFactor?: number | null;
+            /**
+             * @description Cord-and-plug connected (not fastened in place) or fastened in place (NEC 210.23)
+             * @enum {string}
+             */
+            connection?: "cord-and-plug" | "fastened-in-place";
+            /**
+             * @description Maximum current expected to last 3 hours or more (NEC Article 100)
+             * @default false
+             */
+            continuous: boolean;
+            /**
+             * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
+             * @example 0.5
+             */
+            motorHp?: number | null;
+            /**
+             * @description Locked-rotor indicating code letter (NEC 430.7(B))
+             * @example J
+             */
+            lockedRotorCode?: string | null;
+            /**
+             * @description Start-up peak RMS current from the nameplate or maker (e.g. a compressor's LRA), A
+             * @example 52
+             */
+            startPeakA?: number | null;
+            /**
+             * @description How long the start-up peak lasts, s
+             * @example 0.3
+             */
+            startDurationS?: number | null;
+            notes?: string | null;
+            /** @description Traces recorded on this load (sets each trace's loadId; replaces the previous links) */
+            traceIds?: string[];
         };
     };
     responses: never;
@@ -1013,6 +1244,402 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["Circuit"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    listLoads: {
+        parameters: {
+            query?: {
+                /** @description Page size */
+                limit?: number;
+                /** @description Opaque cursor from the previous page's `nextCursor` */
+                cursor?: string;
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A page of loads */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LoadPage"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    createLoad: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["LoadCreate"];
+            };
+        };
+        responses: {
+            /** @description The new load */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Load"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getLoad: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                loadId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The load */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Load"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    deleteLoad: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                loadId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Deleted */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    updateLoad: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                loadId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["LoadUpdate"];
+            };
+        };
+        responses: {
+            /** @description The updated load */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Load"];
                 };
             };
             /** @description Invalid request (validation or malformed body) */

@@ -1,4 +1,5 @@
 import { CONDUCTOR_MATERIALS, DEVICE_KINDS } from '../../../models/circuit.js';
+import { CircuitWarning } from './citation.js';
 import { Id, Pagination, Timestamp, pageOf, z } from './common.js';
 
 export const DeviceKind = z.enum(DEVICE_KINDS).openapi('DeviceKind', {
@@ -51,6 +52,9 @@ export const Circuit = z
     necEdition: z.number().int(),
     notes: z.string().nullable(),
     loadCount: z.number().int(),
+    warnings: z.array(CircuitWarning).openapi({
+      description: 'Conductor too small for the device (NEC 240.4(D)), a rating outside NEC 240.6(A) or the IEC 60898-1 preferred values, or a device outside the trip models',
+    }),
     createdAt: Timestamp,
     updatedAt: Timestamp,
   })
