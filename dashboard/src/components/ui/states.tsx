@@ -1,4 +1,4 @@
-import { HeadroomApiError } from '@headroom/sdk';
+import { HeadroomApiError, type ProblemFieldError } from '@headroom/sdk';
 import type { ReactNode } from 'react';
 
 export function LoadingState({ label = 'Loading…' }: { label?: string }) {
@@ -19,13 +19,39 @@ export function EmptyState({ title, children }: { title: string; children?: Reac
   );
 }
 
-export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () => void }) {
-  const message = error instanceof HeadroomApiError ? error.problem.detail : error instanceof Error ? error.message : String(error);
-  const title = error instanceof HeadroomApiError ? error.problem.title : 'Something went wrong';
+/** Where a field problem points: a CSV line and column, a body field, or a parameter. */
+export function locateProblem(e: ProblemFieldError): string {
+  if (e.line !== undefined) return e.column !== undefined ? `Line ${e.line}, column ${e.column}` : `Line ${e.line}`;
+  if (e.pointer) return e.pointer.replace(/^\//, '').replaceAll('/', ' › ') || 'Body';
+  if (e.parameter) return `Parameter ${e.parameter}`;
+  return '';
+}
+
+/** The title, detail and every field problem (with line numbers for files) of a failed request. */
+export function ErrorState({ error, onRetry, title: titleOverride }: { error: unknown; onRetry?: () => void; title?: string }) {
+  const problem = error instanceof HeadroomApiError ? error.problem : undefined;
+  const message = problem ? problem.detail : error instanceof Error ? error.message : String(error);
+  const title = titleOverride ?? problem?.title ?? 'Something went wrong';
+  const fieldErrors = problem?.errors ?? [];
   return (
     <div role="alert" className="rounded-lg border border-verdict-over/40 bg-red-50 p-4 text-sm">
       <p className="font-semibold text-verdict-over">{title}</p>
-      <p className="mt-1 text-ink-800">{message}</p>
+      {message ? <p className="mt-1 text-ink-800">{message}</p> : null}
+      {fieldErrors.length ? (
+        <ul className="mt-2 max-h-48 list-disc space-y-0.5 overflow-auto pl-5 text-ink-800" aria-label="Problems">
+          {fieldErrors.slice(0, 50).map((e, i) => {
+            const where = locateProblem(e);
+            return (
+              <li key={i}>
+                {where ? <span className="font-medium">{where}: </span> : null}
+                {e.detail}
+              </li>
+            );
+          })}
+          {fieldErrors.length > 50 ? <li>… and {fieldErrors.length - 50} more</li> : null}
+        </ul>
+      ) : null}
+      {problem?.requestId ? <p className="mt-2 text-xs text-ink-500">Request id {problem.requestId}</p> : null}
       {onRetry ? (
         <button type="button" onClick={onRetry} className="mt-3 rounded bg-ink-800 px-3 py-1.5 text-white hover:bg-ink-700">
           Try again
@@ -33,4 +59,10 @@ export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () =>
       ) : null}
     </div>
   );
+}
+
+/** The problem of one field, by its JSON pointer, for showing under the input. */
+export function fieldError(error: unknown, pointer: string): string | undefined {
+  if (!(error instanceof HeadroomApiError)) return undefined;
+  return error.problem.errors?.find((e) => e.pointer === pointer)?.detail;
 }
