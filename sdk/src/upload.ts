@@ -1,0 +1,130 @@
+import { bearerHeader, type ClientContext } from './client.js';
+import { errorFromFailedResponse } from './errors.js';
+import { newIdempotencyKey } from './idempotency.js';
+import { resolveRetry, withRetries, type RetryOptions } from './retry.js';
+
+/** Bytes of the request body handed to the network so far, out of the whole body. */
+export interface UploadProgress {
+  loadedBytes: number;
+  totalBytes: number;
+}
+
+/** A body that can be sent again from its start on a retry. */
+export type ReplayableBody = Blob | Uint8Array | ArrayBuffer | string;
+
+export interface SendOptions {
+  method: 'POST' | 'PUT' | 'PATCH';
+  /** Path under `/api/v1`, already filled in, e.g. `/traces/abc/samples`. */
+  path: string;
+  query?: Record<string, string | number | boolean | undefined>;
+  headers?: Record<string, string>;
+  body: ReplayableBody;
+  /**
+   * Byte progress of the body. In browsers it comes from XMLHttpRequest's upload events (bytes sent on
+   * the wire); in Node from a streamed body (bytes handed to the socket; the last ones may still be in
+   * flight). On a retry it starts again from 0.
+   */
+  onProgress?: (progress: UploadProgress) => void;
+  /** Sent as `Idempotency-Key`; a new random key when omitted. Kept the same across retries. */
+  idempotencyKey?: string;
+  retry?: RetryOptions | false;
+  signal?: AbortSignal;
+}
+
+const PROGRESS_CHUNK_BYTES = 64 * 1024;
+
+function asBlob(body: ReplayableBody): Blob {
+  if (body instanceof Blob) return body;
+  // Copy a view that does not cover its whole buffer, so the Blob holds exactly these bytes.
+  return new Blob([body instanceof Uint8Array ? new Uint8Array(body) : body]);
+}
+
+function buildUrl(context: ClientContext, path: string, query: SendOptions['query']): string {
+  const params = new URLSearchParams();
+  for (const [name, value] of Object.entries(query ?? {})) if (value !== undefined) params.set(name, String(value));
+  const search = params.toString();
+  return `${context.apiUrl}${path}${search ? `?${search}` : ''}`;
+}
+
+/** A stream over the blob that reports each piece as the network takes it. */
+function countingStream(blob: Blob, onProgress: (p: UploadProgress) => void): ReadableStream<Uint8Array> {
+  let offset = 0;
+  return new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      if (offset >= blob.size) {
+        controller.close();
+        return;
+      }
+      const end = Math.min(blob.size, offset + PROGRESS_CHUNK_BYTES);
+      const piece = new Uint8Array(await blob.slice(offset, end).arrayBuffer());
+      offset = end;
+      controller.enqueue(piece);
+      onProgress({ loadedBytes: offset, totalBytes: blob.size });
+    },
+  });
+}
+
+/** One attempt through XMLHttpRequest: the only browser API that reports upload progress. */
+function sendWithXhr(url: string, method: string, headers: Headers, blob: Blob, signal: AbortSignal, onProgress: (p: UploadProgress) => void): Promise<Response> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open(method, url);
+    xhr.responseType = 'arraybuffer';
+    headers.forEach((value, name) => xhr.setRequestHeader(name, value));
+    xhr.upload.onprogress = (event) => onProgress({ loadedBytes: event.loaded, totalBytes: blob.size });
+    xhr.onload = () => {
+      const responseHeaders = new Headers();
+      for (const line of xhr.getAllResponseHeaders().trim().split(/[\r\n]+/)) {
+        const colon = line.indexOf(':');
+        if (colon > 0) responseHeaders.append(line.slice(0, colon).trim(), line.slice(colon + 1).trim());
+      }
+      const empty = xhr.status === 204 || xhr.status === 205 || xhr.status === 304;
+      resolve(new Response(empty ? null : (xhr.response as ArrayBuffer), { status: xhr.status, statusText: xhr.statusText, headers: responseHeaders }));
+    };
+    xhr.onerror = () => reject(new TypeError('network error'));
+    xhr.ontimeout = () => reject(new TypeError('network timeout'));
+    xhr.onabort = () => reject(signal.reason ?? new DOMException('The operation was aborted', 'AbortError'));
+    signal.addEventListener('abort', () => xhr.abort(), { once: true });
+    xhr.send(blob);
+  });
+}
+
+/**
+ * Sends a body that can be replayed (a Blob, bytes or text), with byte progress when asked, an
+ * Idempotency-Key, and the client's retry policy. Resolves with the successful Response; a failed
+ * status rejects with the typed error carrying the problem body.
+ */
+export async function sendBody(context: ClientContext, options: SendOptions): Promise<Response> {
+  const blob = asBlob(options.body);
+  const url = buildUrl(context, options.path, options.query);
+  const headers = new Headers({ ...options.headers, ...bearerHeader(context.token), 'Idempotency-Key': options.idempotencyKey ?? newIdempotencyKey() });
+  const onProgress = options.onProgress;
+  const useXhr = onProgress !== undefined && typeof XMLHttpRequest !== 'undefined';
+  const response = await withRetries(
+    (signal) => {
+      onProgress?.({ loadedBytes: 0, totalBytes: blob.size });
+      if (useXhr) return sendWithXhr(url, options.method, headers, blob, signal, onProgress);
+      if (!onProgress) return context.fetch(url, { method: options.method, headers, body: blob, signal });
+      // A streamed body lets Node count the bytes; `duplex: 'half'` is required for stream bodies.
+      const init: RequestInit & { duplex: 'half' } = { method: options.method, headers, body: countingStream(blob, onProgress), signal, duplex: 'half' };
+      return context.fetch(url, init);
+    },
+    { method: options.method, hasIdempotencyKey: true, options: resolveRetry(context.retry, options.retry), signal: options.signal ?? null },
+  );
+  if (!response.ok) throw await errorFromFailedResponse(response);
+  return response;
+}
+
+/** Text fields and one file as a multipart/form-data body (RFC 7578) that can be replayed and measured. */
+export function multipartBody(fields: Record<string, string | number | boolean | undefined>, file: { field: string; name: string; type: string; content: Blob | Uint8Array | string }): { body: Blob; contentType: string } {
+  const boundary = `headroom-${newIdempotencyKey()}`;
+  const quote = (s: string) => s.replace(/["\r\n\\]/g, (c) => encodeURIComponent(c));
+  const parts: BlobPart[] = [];
+  for (const [name, value] of Object.entries(fields)) {
+    if (value === undefined) continue;
+    parts.push(`--${boundary}\r\nContent-Disposition: form-data; name="${quote(name)}"\r\n\r\n${String(value)}\r\n`);
+  }
+  parts.push(`--${boundary}\r\nContent-Disposition: form-data; name="${quote(file.field)}"; filename="${quote(file.name)}"\r\nContent-Type: ${file.type}\r\n\r\n`);
+  parts.push(file.content instanceof Uint8Array ? new Uint8Array(file.content) : file.content, `\r\n--${boundary}--\r\n`);
+  return { body: new Blob(parts), contentType: `multipart/form-data; boundary=${boundary}` };
+}
