@@ -2,6 +2,7 @@ import type { Config } from '../config/config.js';
 import type { Db } from '../db/open.js';
 import { createApiKeysService } from './api-keys.js';
 import { createAuditService } from './audit.js';
+import { createChecksService } from './checks.js';
 import { createCircuitsService } from './circuits.js';
 import { createLoadsService } from './loads.js';
 import { createSessionsService } from './sessions.js';
@@ -15,7 +16,8 @@ export function createServices(db: Db, _config: Config) {
   const sites = createSitesService(db);
   const circuits = createCircuitsService(db, sites);
   const loads = createLoadsService(db, circuits);
-  return { db, audit, sessions, apiKeys, sites, circuits, loads };
+  const checks = createChecksService({ circuits, loads });
+  return { db, audit, sessions, apiKeys, sites, circuits, loads, checks };
 }
 
 export type Services = ReturnType<typeof createServices>;

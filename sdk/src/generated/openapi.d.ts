@@ -184,6 +184,34 @@ export interface paths {
         patch: operations["updateLoad"];
         trace?: never;
     };
+    "/circuits/{circuitId}/check": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Headroom check of a circuit with its loads
+         * @description Each load is judged on its recorded traces where it has them, otherwise on its nameplate. Steady loading is checked against NEC 210.19(A)/210.20(A) (continuous load), 210.23 (cord-and-plug and fastened-in-place shares, never above the rating); each start-up is stacked on the others' running current against the device's instantaneous band, and the stacked profile runs through its thermal band. The reasons name the rule and the NEC edition; the cautions always apply.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["checkCircuit"];
+        put?: never;
+        /**
+         * What-if headroom check: the circuit's loads plus hypothetical ones by nameplate
+         * @description Each load is judged on its recorded traces where it has them, otherwise on its nameplate. Steady loading is checked against NEC 210.19(A)/210.20(A) (continuous load), 210.23 (cord-and-plug and fastened-in-place shares, never above the rating); each start-up is stacked on the others' running current against the device's instantaneous band, and the stacked profile runs through its thermal band. The reasons name the rule and the NEC edition; the cautions always apply. Nothing is stored.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        post: operations["checkCircuitWhatIf"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -534,6 +562,207 @@ export interface components {
             notes?: string | null;
             /** @description Traces recorded on this load (sets each trace's loadId; replaces the previous links) */
             traceIds?: string[];
+        };
+        HeadroomCheck: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            circuitId: string;
+            circuitLabel: string;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            siteId: string;
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            checkedAt: string;
+            verdict: components["schemas"]["Verdict"];
+            /** @example Dedicated circuit advised */
+            verdictLabel: string;
+            summary: string;
+            /** @description Rating − (noncontinuous + 125 % of continuous load), A; negative when over */
+            headroomA: number;
+            /** @description Amps between the worst stacked start and the instantaneous no-trip edge; null for fuses */
+            startHeadroomA: number | null;
+            /** @description Worst first; each names its rule or clause with the edition */
+            reasons: components["schemas"]["CheckReason"][];
+            steady: {
+                ratingA: number;
+                runningTotalA: number;
+                continuousA: number;
+                noncontinuousA: number;
+                fastenedInPlaceA: number;
+                requiredRatingA: number;
+                rules: components["schemas"]["RuleResult"][];
+            };
+            startUps: components["schemas"]["StartUpScenario"][];
+            thermal: {
+                allRunning: components["schemas"]["ThermalAssessment"];
+            };
+            loads: components["schemas"]["CheckedLoad"][];
+            warnings: components["schemas"]["CircuitWarning"][];
+            device: {
+                deviceKind: string;
+                ratingA: number;
+                label: string;
+                notes: string[];
+            };
+            assumptions: string[];
+            cautions: {
+                id: string;
+                text: string;
+            }[];
+            parameters: {
+                tightFraction: number;
+                assumedMotorStartS: number;
+                necEdition: number;
+            };
+        };
+        /**
+         * @description fine < tight < dedicated-circuit-advised < over-the-limit (README "How Headroom judges a circuit")
+         * @enum {string}
+         */
+        Verdict: "fine" | "tight" | "dedicated-circuit-advised" | "over-the-limit";
+        CheckReason: {
+            verdict: components["schemas"]["Verdict"];
+            /** @example nec-210.23-total-within-rating */
+            ruleId: string;
+            citation: components["schemas"]["Citation"];
+            message: string;
+            loadName?: string;
+        };
+        RuleResult: {
+            ruleId: string;
+            citation: components["schemas"]["Citation"];
+            limitA: number;
+            actualA: number;
+            passed: boolean;
+            /** @enum {string} */
+            severity: "violation" | "warning" | "advice";
+            message: string;
+        };
+        /** @description One load starting while every other load runs (worst-case alignment) */
+        StartUpScenario: {
+            startingLoad: string;
+            othersRunningA: number;
+            loadPeakA: number;
+            stackedPeakA: number;
+            /** @enum {string} */
+            basis: "half-cycle-rms" | "peak-over-root-2" | "sample-rms";
+            /** @enum {string} */
+            startUpSource: "events" | "start-profile" | "motor-code-letter" | "motor-six-times-flc" | "running-only";
+            instantaneous: components["schemas"]["InstantaneousAssessment"];
+            instantaneousAlone: components["schemas"]["InstantaneousAssessment"];
+            thermal: components["schemas"]["ThermalAssessment"];
+        };
+        InstantaneousAssessment: {
+            /** @enum {string} */
+            outcome: "will-not-trip" | "may-trip" | "will-trip";
+            currentA: number;
+            /** @enum {string} */
+            basis: "half-cycle-rms" | "peak-over-root-2" | "sample-rms";
+            noTripA: number;
+            tripA: number;
+            ratioToNoTripEdge: number;
+            ratioToTripEdge: number;
+            marginA: number;
+            multipleOfRating: number;
+        } | null;
+        ThermalAssessment: {
+            /** @enum {string} */
+            outcome: "will-not-trip" | "may-trip" | "will-trip";
+            estimatedTripS: number | null;
+            earliestTripS: number | null;
+            latestTripS: number | null;
+            membersTripping: number;
+            memberCount: number;
+            fastestHeatingRatio: number;
+            nominalHeatingRatio: number;
+        };
+        CheckedLoad: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            loadId: string | null;
+            name: string;
+            whatIf: boolean;
+            runningA: number;
+            /** @enum {string} */
+            runningSource: "trace" | "nameplate-amps" | "nameplate-watts" | "motor-table-430.248";
+            continuous: boolean;
+            /** @enum {string} */
+            connection: "cord-and-plug" | "fastened-in-place";
+            startPeakA: number;
+            /** @enum {string} */
+            startUpSource: "events" | "start-profile" | "motor-code-letter" | "motor-six-times-flc" | "running-only";
+            traceIds: string[];
+        };
+        WhatIfCheck: {
+            /**
+             * @description Hypothetical loads, by nameplate, added to the stored ones
+             * @default []
+             */
+            extraLoads: components["schemas"]["WhatIfLoad"][];
+            parameters?: {
+                /** @description Margin below a limit that counts as tight (default 0.1) */
+                tightFraction?: number;
+                /** @description How long a motor known only by its nameplate draws its locked-rotor current, s (default 1) */
+                assumedMotorStartS?: number;
+            };
+        };
+        WhatIfLoad: {
+            /** @example Stand mixer (20 qt) */
+            name: string;
+            /**
+             * @description Nameplate (rated or running) current, A
+             * @example 9.5
+             */
+            nameplateA?: number | null;
+            /**
+             * @description Nameplate power, W (converted at the circuit voltage and power factor)
+             * @example 1500
+             */
+            nameplateW?: number | null;
+            /**
+             * @description Power factor for watts → amps; 1 (resistive) when omitted
+             * @example 0.85
+             */
+            powerFactor?: number | null;
+            /**
+             * @description Cord-and-plug connected (not fastened in place) or fastened in place (NEC 210.23)
+             * @enum {string}
+             */
+            connection: "cord-and-plug" | "fastened-in-place";
+            /**
+             * @description Maximum current expected to last 3 hours or more (NEC Article 100)
+             * @default false
+             */
+            continuous: boolean;
+            /**
+             * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
+             * @example 0.5
+             */
+            motorHp?: number | null;
+            /**
+             * @description Locked-rotor indicating code letter (NEC 430.7(B))
+             * @example J
+             */
+            lockedRotorCode?: string | null;
+            /**
+             * @description Start-up peak RMS current from the nameplate or maker (e.g. a compressor's LRA), A
+             * @example 52
+             */
+            startPeakA?: number | null;
+            /**
+             * @description How long the start-up peak lasts, s
+             * @example 0.3
+             */
+            startDurationS?: number | null;
         };
     };
     responses: never;
@@ -1677,6 +1906,181 @@ export interface operations {
                 content: {
                     "application/problem+json": components["schemas"]["ProblemDetails"];
                 };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    checkCircuit: {
+        parameters: {
+            query?: {
+                tightFraction?: number | null;
+                assumedMotorStartS?: number;
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The verdict, its reasons and the figures behind them */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HeadroomCheck"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The circuit as recorded cannot be judged (e.g. a device outside every trip model) */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    checkCircuitWhatIf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["WhatIfCheck"];
+            };
+        };
+        responses: {
+            /** @description The verdict with the hypothetical loads added */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HeadroomCheck"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The circuit as recorded cannot be judged */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
             /** @description Too many requests; see Retry-After */
             429: {
