@@ -1,5 +1,6 @@
 import type { Config } from '../config/config.js';
 import type { Db } from '../db/open.js';
+import { createAnalysisService } from './analysis.js';
 import { createApiKeysService } from './api-keys.js';
 import { createAuditService } from './audit.js';
 import { createChecksService } from './checks.js';
@@ -17,7 +18,8 @@ export function createServices(db: Db, _config: Config) {
   const circuits = createCircuitsService(db, sites);
   const loads = createLoadsService(db, circuits);
   const checks = createChecksService({ circuits, loads });
-  return { db, audit, sessions, apiKeys, sites, circuits, loads, checks };
+  const analysis = createAnalysisService();
+  return { db, audit, sessions, apiKeys, sites, circuits, loads, checks, analysis };
 }
 
 export type Services = ReturnType<typeof createServices>;
