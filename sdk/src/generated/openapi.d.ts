@@ -378,12 +378,12 @@ export interface components {
              * @description Whether the circuit also feeds lighting or other outlets (NEC 210.23)
              * @default true
              */
-            feedsOtherOutlets: boolean;
+            feedsOtherOutlets?: boolean;
             /**
              * @description NFPA 70 edition the check cites (clause numbers differ between editions)
              * @default 2023
              */
-            necEdition: 2020 | 2023;
+            necEdition?: 2020 | 2023;
             notes?: string | null;
         };
         CircuitUpdate: {
@@ -410,12 +410,12 @@ export interface components {
              * @description Whether the circuit also feeds lighting or other outlets (NEC 210.23)
              * @default true
              */
-            feedsOtherOutlets: boolean;
+            feedsOtherOutlets?: boolean;
             /**
              * @description NFPA 70 edition the check cites (clause numbers differ between editions)
              * @default 2023
              */
-            necEdition: 2020 | 2023;
+            necEdition?: 2020 | 2023;
             notes?: string | null;
         };
         LoadPage: {
@@ -486,7 +486,7 @@ export interface components {
              * @description Maximum current expected to last 3 hours or more (NEC Article 100)
              * @default false
              */
-            continuous: boolean;
+            continuous?: boolean;
             /**
              * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
              * @example 0.5
@@ -538,7 +538,7 @@ export interface components {
              * @description Maximum current expected to last 3 hours or more (NEC Article 100)
              * @default false
              */
-            continuous: boolean;
+            continuous?: boolean;
             /**
              * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
              * @example 0.5
@@ -707,7 +707,7 @@ export interface components {
              * @description Hypothetical loads, by nameplate, added to the stored ones
              * @default []
              */
-            extraLoads: components["schemas"]["WhatIfLoad"][];
+            extraLoads?: components["schemas"]["WhatIfLoad"][];
             parameters?: {
                 /** @description Margin below a limit that counts as tight (default 0.1) */
                 tightFraction?: number;
@@ -742,7 +742,7 @@ export interface components {
              * @description Maximum current expected to last 3 hours or more (NEC Article 100)
              * @default false
              */
-            continuous: boolean;
+            continuous?: boolean;
             /**
              * @description Motor horsepower (full-load current from NEC Table 430.248 when no nameplate amps)
              * @example 0.5
