@@ -32,7 +32,7 @@ export interface HeadroomCheck {
   allRunningThermal: ThermalAssessment;
   /** Circuit warnings that do not change the verdict (NEC 240.4(D) small-conductor limit). */
   warnings: RuleResult[];
-  device: Pick<TripModel, 'deviceKind' | 'ratingA' | 'label' | 'notes'>;
+  device: Pick<TripModel, 'deviceKind' | 'ratingA' | 'label'> & { notes: string[] };
   /** Assumed figures for loads without measured start-ups. */
   assumptions: string[];
   cautions: Caution[];
@@ -72,7 +72,7 @@ export function checkCircuitHeadroom(
     scenarios: stacked.scenarios,
     allRunningThermal: stacked.allRunning,
     warnings: conductorRule !== null && !conductorRule.passed ? [conductorRule] : [],
-    device: { deviceKind: model.deviceKind, ratingA: model.ratingA, label: model.label, notes: model.notes },
+    device: { deviceKind: model.deviceKind, ratingA: model.ratingA, label: model.label, notes: [...model.notes] },
     assumptions: stacked.assumptions,
     cautions: headroomCautions(circuit.necEdition),
     parameters: { ...params, necEdition: circuit.necEdition },

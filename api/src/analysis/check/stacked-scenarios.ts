@@ -7,11 +7,10 @@ import {
   type InstantaneousBasis,
 } from '../trip/instantaneous-band.js';
 import { assessThermal, type ThermalAssessment } from '../trip/thermal-family.js';
-import { compareTripOutcomes } from '../trip/trip-outcome.js';
 import type { TripModel } from '../trip/trip-model.js';
 import type { CheckParameters, CircuitUnderCheck, LoadUnderCheck } from './check-input.js';
 import { describeLoadStartUp, type StartUpSource } from './load-start-up.js';
-import type { CheckReason } from './verdict.js';
+import { compareVerdicts, type CheckReason } from './verdict.js';
 
 /**
  * One worst-case alignment: load `startingLoad` starts (or runs its duty) while every other load runs at
@@ -159,15 +158,6 @@ function thermalReason(
   return null;
 }
 
-/** Orders thermal assessments by how close they come to a trip: outcome first, then heating. */
-function thermalSeverity(a: ThermalAssessment, b: ThermalAssessment): number {
-  return (
-    compareTripOutcomes(a.outcome, b.outcome) ||
-    a.nominalHeatingRatio - b.nominalHeatingRatio ||
-    a.fastestHeatingRatio - b.fastestHeatingRatio
-  );
-}
-
 /**
  * Start-up and thermal check with worst-case alignment: for each load in turn, its start (or duty) is
  * stacked on the running current of all the others and judged against the device's instantaneous band and
@@ -221,25 +211,27 @@ export function checkStackedScenarios(
       holdLast: true,
     },
   );
-  const worst = scenarios.reduce<StackedScenario | null>(
-    (w, s) => (w === null || thermalSeverity(s.thermal, w.thermal) > 0 ? s : w),
-    null,
-  );
-  const thermal =
-    worst === null || thermalSeverity(worst.thermal, allRunning) <= 0
-      ? thermalReason(
-          allRunning,
-          `With all loads running together (${formatAmps(totalRunningA)})`,
-          model,
-          params.tightFraction,
-        )
-      : thermalReason(
-          worst.thermal,
-          `With ${worst.startingLoad} starting while the others run`,
-          model,
-          params.tightFraction,
-          worst.startingLoad,
-        );
+  // The worst thermal finding; on a tie the all-running one, which names no single load.
+  const thermal = scenarios
+    .map((scenario) =>
+      thermalReason(
+        scenario.thermal,
+        `With ${scenario.startingLoad} starting while the others run`,
+        model,
+        params.tightFraction,
+        scenario.startingLoad,
+      ),
+    )
+    .reduce<CheckReason | null>(
+      (worst, reason) =>
+        reason !== null && (worst === null || compareVerdicts(reason.verdict, worst.verdict) > 0) ? reason : worst,
+      thermalReason(
+        allRunning,
+        `With all loads running together (${formatAmps(totalRunningA)})`,
+        model,
+        params.tightFraction,
+      ),
+    );
   if (thermal !== null) reasons.push(thermal);
   const margins = scenarios.flatMap((s) => (s.instantaneous === null ? [] : [s.instantaneous.marginA]));
   return {
