@@ -288,7 +288,9 @@ describe('bad input', () => {
     [{}, [load('a', 1, { motor: { horsepower: 0 } })], /loads\[0\]\.motor\.horsepower/],
     [{ deviceKind: 'fuse' as const, ratingA: 40 }, [], /30 A/],
   ] as const)('rejects %o with a RangeError naming the field', (circuitOverrides, loads, message) => {
-    expect(() => checkCircuitHeadroom(circuit(circuitOverrides), loads as readonly LoadUnderCheck[])).toThrow(RangeError);
+    expect(() => checkCircuitHeadroom(circuit(circuitOverrides), loads as readonly LoadUnderCheck[])).toThrow(
+      RangeError,
+    );
     expect(() => checkCircuitHeadroom(circuit(circuitOverrides), loads as readonly LoadUnderCheck[])).toThrow(message);
   });
 
