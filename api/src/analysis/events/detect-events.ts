@@ -7,7 +7,7 @@
  * Source: see the files named above; all thresholds are our design choice.
  */
 
-import type { SampleArray } from '../validation/assert-input.js';
+import { assertInteger, type SampleArray } from '../validation/assert-input.js';
 import { indexAfterTime, timeAt, type TimeAxis } from '../time/time-axis.js';
 import type { HalfCycleBlocks } from '../waveform/half-cycle-blocks.js';
 import { DEFAULT_INRUSH_PARAMS, analyseInrush, assertInrushParams, steadyCurrent, type InrushEvent, type InrushParams } from './inrush.js';
@@ -21,14 +21,24 @@ import {
 } from './on-threshold.js';
 import { DEFAULT_SURGE_PARAMS, assertSurgeParams, findSurges, type Surge, type SurgeParams } from './surges.js';
 
+/** Cap on the events reported. */
+export interface EventLimitParams {
+  /**
+   * Most inrush events, and most surges, reported (default 1000). A noisy trace hovering at the
+   * on-threshold could otherwise produce millions; the output says when the list was cut.
+   */
+  maxEvents: number;
+}
+
 /** All event-detection parameters, flat (the names say which step uses them). */
-export type EventParams = OnThresholdParams & InrushParams & SurgeParams;
+export type EventParams = OnThresholdParams & InrushParams & SurgeParams & EventLimitParams;
 
 /** Defaults of every event parameter. Our design choice; see each step's file for the reasoning. */
 export const DEFAULT_EVENT_PARAMS: Readonly<EventParams> = Object.freeze({
   ...DEFAULT_ON_THRESHOLD_PARAMS,
   ...DEFAULT_INRUSH_PARAMS,
   ...DEFAULT_SURGE_PARAMS,
+  maxEvents: 1000,
 });
 
 /** The parameters used, as echoed in results: every value, plus the resolved levels. */
@@ -40,6 +50,8 @@ export interface DetectedEvents {
   surges: Surge[];
   /** Number of on-periods (including one already on at the start of the series). */
   onPeriodCount: number;
+  /** True when events or surges beyond maxEvents were left out (analysis stops at the cap). */
+  eventsTruncated: boolean;
   params: EventParamsUsed;
 }
 
@@ -56,6 +68,7 @@ export function resolveEventParams(given: Partial<EventParams> = {}): EventParam
   assertOnThresholdParams(params);
   assertInrushParams(params);
   assertSurgeParams(params);
+  assertInteger(params.maxEvents, 0, 'maxEvents');
   return params;
 }
 
@@ -85,7 +98,12 @@ export function detectEvents(
   const periods = findOnPeriods(a, levels.onThresholdA, levels.offThresholdA);
   const inrushEvents: InrushEvent[] = [];
   const surges: Surge[] = [];
+  let eventsTruncated = false;
   for (const period of periods) {
+    if (inrushEvents.length >= params.maxEvents && surges.length >= params.maxEvents) {
+      eventsTruncated = true;
+      break;
+    }
     let runningA: number;
     let surgeFrom: number;
     if (period.startsAtSeriesStart) {
@@ -93,14 +111,20 @@ export function detectEvents(
       surgeFrom = period.startIndex;
     } else {
       const event = analyseInrush(axis, a, period, params, context.blocks);
-      inrushEvents.push(event);
+      if (inrushEvents.length < params.maxEvents) inrushEvents.push(event);
+      else eventsTruncated = true;
       runningA = event.steadyA;
       const afterS = event.settledAtS ?? event.onsetTimeS + params.maxInrushS;
       surgeFrom = Math.max(period.startIndex, indexAfterTime(axis, period.startIndex, period.endIndex, afterS));
       // A sample exactly at the settling time belongs to the running phase.
       if (surgeFrom > period.startIndex && timeAt(axis, surgeFrom - 1) === afterS) surgeFrom -= 1;
     }
-    if (surgeFrom < period.endIndex) surges.push(...findSurges(axis, a, surgeFrom, period.endIndex, runningA, params));
+    if (surgeFrom < period.endIndex) {
+      for (const surge of findSurges(axis, a, surgeFrom, period.endIndex, runningA, params)) {
+        if (surges.length < params.maxEvents) surges.push(surge);
+        else eventsTruncated = true;
+      }
+    }
   }
-  return { inrushEvents, surges, onPeriodCount: periods.length, params: { ...params, ...levels } };
+  return { inrushEvents, surges, onPeriodCount: periods.length, eventsTruncated, params: { ...params, ...levels } };
 }

@@ -130,6 +130,8 @@ export interface TraceAnalysis {
   inrushEvents: InrushEvent[];
   surges: Surge[];
   onPeriodCount: number;
+  /** True when more than params.events.maxEvents events or surges were found and the lists were cut. */
+  eventsTruncated: boolean;
   params: AnalyzeParamsUsed;
 }
 
@@ -230,6 +232,7 @@ export function analyzeTrace(input: TraceInput, params: AnalyzeParams = {}): Tra
     inrushEvents: events.inrushEvents,
     surges: events.surges,
     onPeriodCount: events.onPeriodCount,
+    eventsTruncated: events.eventsTruncated,
     params: {
       probe: { ...probe },
       mainsFrequencyHz,

@@ -19,14 +19,44 @@ const GATHER_LIMIT = 1 << 15;
 /** Ranges with at most this many candidates are gathered and sorted directly. */
 const SMALL_RANGE = 2048;
 
+/** Four interleaved histograms (counts of one bin land in four places), summed after the pass. */
 let histogram = new Uint32Array(0);
 let binSlot = new Int16Array(0);
 let gatherBuffer = new Float64Array(0);
 
 function scratchHistogram(): Uint32Array {
-  if (histogram.length === 0) histogram = new Uint32Array(BIN_COUNT);
+  if (histogram.length === 0) histogram = new Uint32Array(4 * BIN_COUNT);
   else histogram.fill(0);
   return histogram;
+}
+
+/**
+ * Counts per bin of the candidates in values[from, to), bin = ⌊(x − lo)·scale⌋ (scale keeps every
+ * candidate below BIN_COUNT). When every value is a candidate the range test is skipped and four
+ * interleaved histograms take consecutive values, so that runs of equal bins do not serialise on one
+ * counter (a store-to-load dependency). Returns the counts in the first BIN_COUNT entries.
+ */
+function countBins(values: SampleArray, from: number, to: number, lo: number, hi: number, scale: number, all: boolean): Uint32Array {
+  const hist = scratchHistogram();
+  if (all) {
+    const end4 = from + ((to - from) & ~3);
+    for (let i = from; i < end4; i += 4) {
+      hist[(((values[i] as number) - lo) * scale) | 0]! += 1;
+      hist[BIN_COUNT + ((((values[i + 1] as number) - lo) * scale) | 0)]! += 1;
+      hist[2 * BIN_COUNT + ((((values[i + 2] as number) - lo) * scale) | 0)]! += 1;
+      hist[3 * BIN_COUNT + ((((values[i + 3] as number) - lo) * scale) | 0)]! += 1;
+    }
+    for (let i = end4; i < to; i++) hist[(((values[i] as number) - lo) * scale) | 0]! += 1;
+    for (let b = 0; b < BIN_COUNT; b++) {
+      hist[b] = (hist[b] as number) + (hist[BIN_COUNT + b] as number) + (hist[2 * BIN_COUNT + b] as number) + (hist[3 * BIN_COUNT + b] as number);
+    }
+  } else {
+    for (let i = from; i < to; i++) {
+      const x = values[i] as number;
+      if (x >= lo && x <= hi) hist[((x - lo) * scale) | 0]! += 1;
+    }
+  }
+  return hist;
 }
 
 function scratchBinSlots(): Int16Array {
@@ -66,7 +96,9 @@ export function selectRanks(
     for (const r of wanted) result.set(r, lo);
     return result;
   }
-  const scale = BIN_COUNT / (hi - lo);
+  // (BIN_COUNT − 0.5)/(hi − lo): even with rounding, hi maps below BIN_COUNT, so no clamp is needed.
+  const scale = (BIN_COUNT - 0.5) / (hi - lo);
+  const all = candidateCount === to - from;
   if (candidateCount <= SMALL_RANGE || !Number.isFinite(scale)) {
     const buffer = scratchGather(candidateCount);
     let n = 0;
@@ -79,15 +111,7 @@ export function selectRanks(
     return result;
   }
 
-  const hist = scratchHistogram();
-  const last = BIN_COUNT - 1;
-  for (let i = from; i < to; i++) {
-    const x = values[i] as number;
-    if (x >= lo && x <= hi) {
-      const b = ((x - lo) * scale) | 0;
-      hist[b < last ? b : last]! += 1;
-    }
-  }
+  const hist = countBins(values, from, to, lo, hi, scale, all);
 
   // Walk the cumulative counts to find each rank's bin and its rank inside the bin.
   interface Target { bin: number; before: number; count: number; ranks: number[] }
@@ -116,9 +140,8 @@ export function selectRanks(
   const binMax = new Float64Array(targets.length).fill(Number.NEGATIVE_INFINITY);
   for (let i = from; i < to; i++) {
     const x = values[i] as number;
-    if (x >= lo && x <= hi) {
-      const b = ((x - lo) * scale) | 0;
-      const k = slots[b < last ? b : last] as number;
+    if (all || (x >= lo && x <= hi)) {
+      const k = slots[((x - lo) * scale) | 0] as number;
       if (k >= 0) {
         const f = filled[k] as number;
         if (f < GATHER_LIMIT) buffer[(offsets[k] as number) + f] = x;

@@ -123,6 +123,12 @@ interface Accumulator {
   longestStart: number;
   longestEnd: number;
   timeAbove: Float64Array;
+  // The block being scanned (set by the fused passes, consumed by mergeBlockMoments).
+  blockSum: number;
+  blockMin: number;
+  blockMinIndex: number;
+  blockMax: number;
+  blockMaxIndex: number;
 }
 
 function recordGap(acc: Accumulator, startS: number, endS: number, options: SummariseOptions): void {
@@ -172,15 +178,32 @@ export function summarise(
     covered: 0, integral2x: 0, integral2x2: 0,
     gapCount: 0, gapTime: 0, longestStart: 0, longestEnd: 0,
     timeAbove: new Float64Array(thresholds.length),
+    blockSum: 0, blockMin: 0, blockMinIndex: 0, blockMax: 0, blockMaxIndex: 0,
   };
+  const dt = explicit === null ? 1 / (axis as { rateHz: number }).rateHz : 0;
+  if (explicit === null && dt > gap) {
+    // A gap threshold below the sample spacing makes every interval a gap.
+    for (let i = from + 1; i < to; i++) recordGap(acc, timeAt(axis, i - 1), timeAt(axis, i), options);
+  }
+  const uniformIntegrates = explicit === null && dt <= gap;
+  const firstThreshold = thresholds.length > 0 ? (thresholds[0] as number) : Number.POSITIVE_INFINITY;
   for (let b0 = from; b0 < to; b0 += SUMMARY_BLOCK_SAMPLES) {
     const b1 = Math.min(to, b0 + SUMMARY_BLOCK_SAMPLES);
-    accumulateValues(acc, a, b0, b1);
-    // Intervals ending at samples max(b0, from + 1) .. b1 - 1 (each joins a sample to the one before).
+    // Intervals ending at samples i0 .. b1 - 1 (each joins a sample to the one before it).
     const i0 = b0 === from ? from + 1 : b0;
-    if (i0 < b1) {
-      if (explicit === null) accumulateUniformIntervals(acc, a, i0, b1, 1 / (axis as { rateHz: number }).rateHz, gap, axis, options, thresholds);
-      else accumulateExplicitIntervals(acc, a, explicit, i0, b1, gap, options, thresholds);
+    let gapsInBlock = 0;
+    if (explicit !== null) gapsInBlock = fusedExplicitPass(acc, a, explicit, b0, i0, b1, gap, firstThreshold, options);
+    else fusedUniformPass(acc, a, b0, i0, b1, uniformIntegrates ? dt : 0, firstThreshold);
+    if (acc.blockSum !== acc.blockSum || acc.blockMin < -MAX_ABS_CURRENT_A || acc.blockMax > MAX_ABS_CURRENT_A) {
+      // NaN poisons the sum; ±Infinity and out-of-range values show in the extremes.
+      throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+    }
+    mergeBlockMoments(acc, a, b0, b1);
+    for (let k = 1; k < thresholds.length; k++) {
+      const above = explicit !== null
+        ? timeAboveExplicit(a, explicit, i0, b1, thresholds[k] as number, gapsInBlock === 0 ? Number.POSITIVE_INFINITY : gap)
+        : uniformIntegrates ? timeAboveUniform(a, i0, b1, thresholds[k] as number) * dt : 0;
+      acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
     }
   }
   return {
@@ -213,14 +236,27 @@ function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
   throw new RangeError(`timestamps[${to - 1}] = ${String(t[to - 1])} is not a finite time within ±${MAX_ABS_TIME_S} s`);
 }
 
-/** Count, mean/M2 (two-pass within the block, Chan merge across blocks), min and max of a block. */
-function accumulateValues(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
+/**
+ * One pass over a block with implicit, uniform times: sum, min and max of samples [b0, b1), and the
+ * trapezoid sums and time above `h0` over the intervals ending at i0..b1-1 (i0 is b0 + 1 for the
+ * range's first block). `dt` 0 means the intervals are gaps (already recorded) and not integrated.
+ */
+function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: number, b1: number, dt: number, h0: number): void {
   let sum = 0;
   let lo = Number.POSITIVE_INFINITY;
   let hi = Number.NEGATIVE_INFINITY;
   let loIndex = b0;
   let hiIndex = b0;
-  for (let i = b0; i < b1; i++) {
+  if (i0 > b0) {
+    sum = a[b0] as number;
+    lo = sum;
+    hi = sum;
+  }
+  let previous = a[i0 - 1] as number;
+  let s1 = 0;
+  let s2 = 0;
+  let above = 0;
+  for (let i = i0; i < b1; i++) {
     const v = a[i] as number;
     sum += v;
     if (v < lo) {
@@ -231,13 +267,103 @@ function accumulateValues(acc: Accumulator, a: SampleArray, b0: number, b1: numb
       hi = v;
       hiIndex = i;
     }
+    s1 += v + previous;
+    s2 += v * v + previous * previous;
+    if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, 1, h0);
+    previous = v;
   }
-  // NaN makes the sum NaN; ±Infinity or huge values show in lo/hi.
-  if (sum !== sum || lo < -MAX_ABS_CURRENT_A || hi > MAX_ABS_CURRENT_A) {
-    throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+  acc.blockSum = sum;
+  acc.blockMin = lo;
+  acc.blockMinIndex = loIndex;
+  acc.blockMax = hi;
+  acc.blockMaxIndex = hiIndex;
+  if (dt > 0) {
+    acc.integral2x += s1 * dt;
+    acc.integral2x2 += s2 * dt;
+    acc.covered += (b1 - i0) * dt;
+    if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above * dt;
   }
+}
+
+/**
+ * The same pass with explicit times: intervals longer than `gap` are recorded as gaps and skipped;
+ * a timestamp that is not finite or not increasing is a RangeError. Returns the gaps in the block.
+ */
+function fusedExplicitPass(
+  acc: Accumulator,
+  a: SampleArray,
+  t: Float64Array,
+  b0: number,
+  i0: number,
+  b1: number,
+  gap: number,
+  h0: number,
+  options: SummariseOptions,
+): number {
+  let sum = 0;
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  let loIndex = b0;
+  let hiIndex = b0;
+  if (i0 > b0) {
+    sum = a[b0] as number;
+    lo = sum;
+    hi = sum;
+  }
+  let previous = a[i0 - 1] as number;
+  let previousT = t[i0 - 1] as number;
+  let s1 = 0;
+  let s2 = 0;
+  let covered = 0;
+  let above = 0;
+  let gaps = 0;
+  for (let i = i0; i < b1; i++) {
+    const v = a[i] as number;
+    const ti = t[i] as number;
+    const dt = ti - previousT;
+    sum += v;
+    if (v < lo) {
+      lo = v;
+      loIndex = i;
+    }
+    if (v > hi) {
+      hi = v;
+      hiIndex = i;
+    }
+    if (dt > 0 && dt <= gap) {
+      s1 += (v + previous) * dt;
+      s2 += (v * v + previous * previous) * dt;
+      covered += dt;
+      if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, dt, h0);
+    } else if (dt > gap) {
+      gaps += 1;
+      recordGap(acc, previousT, ti, options);
+    } else {
+      throwTimestampError(t, i);
+    }
+    previous = v;
+    previousT = ti;
+  }
+  acc.blockSum = sum;
+  acc.blockMin = lo;
+  acc.blockMinIndex = loIndex;
+  acc.blockMax = hi;
+  acc.blockMaxIndex = hiIndex;
+  acc.integral2x += s1;
+  acc.integral2x2 += s2;
+  acc.covered += covered;
+  if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above;
+  return gaps;
+}
+
+/**
+ * Merges the block [b0, b1) just scanned into the running moments: its M2 about its own mean by a
+ * second pass over the (cache-resident) block, then Chan et al.'s pairwise update; min/max keep the
+ * earliest extreme.
+ */
+function mergeBlockMoments(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
   const n = b1 - b0;
-  const blockMean = sum / n;
+  const blockMean = acc.blockSum / n;
   let blockM2 = 0;
   for (let i = b0; i < b1; i++) {
     const d = (a[i] as number) - blockMean;
@@ -248,109 +374,40 @@ function accumulateValues(acc: Accumulator, a: SampleArray, b0: number, b1: numb
   acc.mean += (delta * n) / total;
   acc.m2 += blockM2 + (delta * delta * acc.count * n) / total;
   acc.count = total;
-  if (lo < acc.min) {
-    acc.min = lo;
-    acc.minIndex = loIndex;
+  if (acc.blockMin < acc.min) {
+    acc.min = acc.blockMin;
+    acc.minIndex = acc.blockMinIndex;
   }
-  if (hi > acc.max) {
-    acc.max = hi;
-    acc.maxIndex = hiIndex;
+  if (acc.blockMax > acc.max) {
+    acc.max = acc.blockMax;
+    acc.maxIndex = acc.blockMaxIndex;
   }
 }
 
-/** Trapezoid integrals and time above thresholds for intervals ending at i0..i1-1, uniform spacing dt. */
-function accumulateUniformIntervals(
-  acc: Accumulator,
-  a: SampleArray,
-  i0: number,
-  i1: number,
-  dt: number,
-  gap: number,
-  axis: TimeAxis,
-  options: SummariseOptions,
-  thresholds: readonly number[],
-): void {
-  if (dt > gap) {
-    // A gap threshold below the sample spacing makes every interval a gap.
-    for (let i = i0; i < i1; i++) recordGap(acc, timeAt(axis, i - 1), timeAt(axis, i), options);
-    return;
-  }
-  let previous = a[i0 - 1] as number;
-  let s1 = 0;
-  let s2 = 0;
+/** Time above h (in units of the spacing) over uniform intervals ending at i0..i1-1. */
+function timeAboveUniform(a: SampleArray, i0: number, i1: number, h: number): number {
+  let above = 0;
+  let p = a[i0 - 1] as number;
   for (let i = i0; i < i1; i++) {
     const v = a[i] as number;
-    s1 += v + previous;
-    s2 += v * v + previous * previous;
-    previous = v;
+    if (v > h || p > h) above += timeAboveOnSegment(p, v, 1, h);
+    p = v;
   }
-  acc.integral2x += s1 * dt;
-  acc.integral2x2 += s2 * dt;
-  acc.covered += (i1 - i0) * dt;
-  for (let k = 0; k < thresholds.length; k++) {
-    const h = thresholds[k] as number;
-    let above = 0;
-    let p = a[i0 - 1] as number;
-    for (let i = i0; i < i1; i++) {
-      const v = a[i] as number;
-      if (v > h || p > h) above += timeAboveOnSegment(p, v, dt, h);
-      p = v;
-    }
-    acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
-  }
+  return above;
 }
 
-/** Trapezoid integrals, gaps and time above thresholds for intervals ending at i0..i1-1, explicit times. */
-function accumulateExplicitIntervals(
-  acc: Accumulator,
-  a: SampleArray,
-  t: Float64Array,
-  i0: number,
-  i1: number,
-  gap: number,
-  options: SummariseOptions,
-  thresholds: readonly number[],
-): void {
-  let previous = a[i0 - 1] as number;
-  let previousT = t[i0 - 1] as number;
-  let s1 = 0;
-  let s2 = 0;
-  let covered = 0;
-  let gaps = 0;
+/** Time above h (s) over explicit intervals ending at i0..i1-1, skipping intervals longer than gap. */
+function timeAboveExplicit(a: SampleArray, t: Float64Array, i0: number, i1: number, h: number, gap: number): number {
+  let above = 0;
+  let p = a[i0 - 1] as number;
+  let pt = t[i0 - 1] as number;
   for (let i = i0; i < i1; i++) {
     const v = a[i] as number;
     const ti = t[i] as number;
-    const dt = ti - previousT;
-    if (dt <= gap) {
-      if (!(dt > 0)) throwTimestampError(t, i);
-      s1 += (v + previous) * dt;
-      s2 += (v * v + previous * previous) * dt;
-      covered += dt;
-    } else if (dt === dt) {
-      gaps += 1;
-      recordGap(acc, previousT, ti, options);
-    } else {
-      throwTimestampError(t, i);
-    }
-    previous = v;
-    previousT = ti;
+    const dt = ti - pt;
+    if ((v > h || p > h) && dt <= gap) above += timeAboveOnSegment(p, v, dt, h);
+    p = v;
+    pt = ti;
   }
-  acc.integral2x += s1;
-  acc.integral2x2 += s2;
-  acc.covered += covered;
-  for (let k = 0; k < thresholds.length; k++) {
-    const h = thresholds[k] as number;
-    let above = 0;
-    let p = a[i0 - 1] as number;
-    let pt = t[i0 - 1] as number;
-    for (let i = i0; i < i1; i++) {
-      const v = a[i] as number;
-      const ti = t[i] as number;
-      const dt = ti - pt;
-      if ((v > h || p > h) && (gaps === 0 || dt <= gap)) above += timeAboveOnSegment(p, v, dt, h);
-      p = v;
-      pt = ti;
-    }
-    acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
-  }
+  return above;
 }
