@@ -236,22 +236,26 @@ function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
   throw new RangeError(`timestamps[${to - 1}] = ${String(t[to - 1])} is not a finite time within ±${MAX_ABS_TIME_S} s`);
 }
 
+/** Block state before its fused pass: the block's first sample when no interval ends at it. */
+function startBlock(acc: Accumulator, a: SampleArray, b0: number, i0: number): void {
+  const first = i0 > b0 ? (a[b0] as number) : null;
+  acc.blockSum = first ?? 0;
+  acc.blockMin = first ?? Number.POSITIVE_INFINITY;
+  acc.blockMax = first ?? Number.NEGATIVE_INFINITY;
+}
+
 /**
  * One pass over a block with implicit, uniform times: sum, min and max of samples [b0, b1), and the
  * trapezoid sums and time above `h0` over the intervals ending at i0..b1-1 (i0 is b0 + 1 for the
  * range's first block). `dt` 0 means the intervals are gaps (already recorded) and not integrated.
  */
 function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: number, b1: number, dt: number, h0: number): void {
-  let sum = 0;
-  let lo = Number.POSITIVE_INFINITY;
-  let hi = Number.NEGATIVE_INFINITY;
+  startBlock(acc, a, b0, i0);
+  let sum = acc.blockSum;
+  let lo = acc.blockMin;
+  let hi = acc.blockMax;
   let loIndex = b0;
   let hiIndex = b0;
-  if (i0 > b0) {
-    sum = a[b0] as number;
-    lo = sum;
-    hi = sum;
-  }
   let previous = a[i0 - 1] as number;
   let s1 = 0;
   let s2 = 0;
@@ -300,16 +304,12 @@ function fusedExplicitPass(
   h0: number,
   options: SummariseOptions,
 ): number {
-  let sum = 0;
-  let lo = Number.POSITIVE_INFINITY;
-  let hi = Number.NEGATIVE_INFINITY;
+  startBlock(acc, a, b0, i0);
+  let sum = acc.blockSum;
+  let lo = acc.blockMin;
+  let hi = acc.blockMax;
   let loIndex = b0;
   let hiIndex = b0;
-  if (i0 > b0) {
-    sum = a[b0] as number;
-    lo = sum;
-    hi = sum;
-  }
   let previous = a[i0 - 1] as number;
   let previousT = t[i0 - 1] as number;
   let s1 = 0;
