@@ -91,6 +91,10 @@ export function runThermalModel(
 
   const n = timesS.length;
   let target = 0;
+  // Evenly spaced series (the usual case) reuse one decay factor instead of an exp per step; spacings
+  // equal to 1e-9 relative (rounding of computed times) share it — the decay changes by far less.
+  let cachedDurationS = NaN;
+  let cachedDecay = 1;
   for (let i = 0; i < n; i++) {
     const a = currentA[i]!;
     target = a * a * inverseRatingSquared;
@@ -102,7 +106,11 @@ export function runThermalModel(
         return { tripAfterS: segmentStartS + toTripS - startS, peakHeatingRatio: 1 };
       }
     }
-    heating = target + (heating - target) * Math.exp(-durationS / tau);
+    if (!(Math.abs(durationS - cachedDurationS) <= 1e-9 * durationS)) {
+      cachedDurationS = durationS;
+      cachedDecay = Math.exp(-durationS / tau);
+    }
+    heating = target + (heating - target) * cachedDecay;
     if (heating > peak) peak = heating;
   }
   if (options.holdLast === true) {
