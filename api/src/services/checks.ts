@@ -1,5 +1,10 @@
 import type { Caution } from '../analysis/check/cautions.js';
-import { DEFAULT_CHECK_PARAMETERS, type CheckParameters, type CircuitUnderCheck, type LoadUnderCheck } from '../analysis/check/check-input.js';
+import {
+  DEFAULT_CHECK_PARAMETERS,
+  type CheckParameters,
+  type CircuitUnderCheck,
+  type LoadUnderCheck,
+} from '../analysis/check/check-input.js';
 import { checkCircuitHeadroom, type HeadroomCheck } from '../analysis/check/headroom-check.js';
 import type { StackedScenario } from '../analysis/check/stacked-scenarios.js';
 import type { SteadyLoading } from '../analysis/check/steady-check.js';
@@ -97,6 +102,14 @@ function summaryOf(result: HeadroomCheck, ratingA: number): string {
   return `${label}: every rule passes, with ${Math.round(result.headroomA * 100) / 100} A of the ${ratingA} A rating to spare.`;
 }
 
+/** A check with the inputs it was computed from (for reports that redraw the stacked profiles). */
+export interface CheckRun {
+  view: CheckView;
+  circuit: CircuitUnderCheck;
+  loads: LoadUnderCheck[];
+  parameters: CheckParameters;
+}
+
 export function createChecksService(deps: { circuits: CircuitsService; loads: LoadsService }) {
   const { circuits, loads } = deps;
 
@@ -105,78 +118,93 @@ export function createChecksService(deps: { circuits: CircuitsService; loads: Lo
     return loadFromNameplate(load, voltageV, params);
   }
 
+  /**
+   * Judges a circuit with its stored loads and any hypothetical `extraLoads`. 404 for a circuit outside the
+   * caller's organisation; 400 naming each bad what-if field; 409 when the circuit as recorded cannot be
+   * judged (e.g. a device outside every trip model).
+   */
+  async function run(scope: Scope, circuitId: string, options: CheckOptions = {}): Promise<CheckRun> {
+    const circuit = await circuits.find(scope, circuitId);
+    const extraLoads = options.extraLoads ?? [];
+    const problems = extraLoads.flatMap((l, i) =>
+      loadFigureProblems(l, circuit.nominalVoltageV, { pointerPrefix: `/extraLoads/${i}` }),
+    );
+    if (problems.length > 0) throw invalid(problems);
+
+    const params: CheckParameters = { ...DEFAULT_CHECK_PARAMETERS, ...options.parameters };
+    const stored = await loads.allOfCircuit(scope, circuitId);
+    const prepared: Array<PreparedLoad & { loadId: string | null; traceIds: string[] }> = [];
+    try {
+      for (const load of stored) {
+        prepared.push({
+          ...prepareStored(load, circuit.nominalVoltageV, params),
+          loadId: load.id,
+          traceIds: load.traceIds,
+        });
+      }
+      for (const load of extraLoads) {
+        const p = loadFromNameplate(load, circuit.nominalVoltageV, params);
+        p.input.name = `${load.name} (what-if)`;
+        prepared.push({ ...p, loadId: null, traceIds: [] });
+      }
+    } catch (err) {
+      if (err instanceof RangeError)
+        throw new Problem('conflict', `A load cannot be judged as recorded: ${err.message}`);
+      throw err;
+    }
+
+    const judged = circuitUnderCheck(circuit, prepared.length);
+    const inputs = prepared.map((p) => p.input);
+    let result: HeadroomCheck;
+    try {
+      result = checkCircuitHeadroom(judged, inputs, params);
+    } catch (err) {
+      if (err instanceof RangeError)
+        throw new Problem('conflict', `This circuit cannot be checked as recorded: ${err.message}`);
+      throw err;
+    }
+
+    const { reasons: _steadyReasons, ...steady } = result.steady;
+    const view: CheckView = {
+      circuitId: circuit.id,
+      circuitLabel: circuit.label,
+      siteId: circuit.siteId,
+      checkedAt: new Date().toISOString(),
+      verdict: result.verdict,
+      verdictLabel: VERDICT_LABELS[result.verdict],
+      summary: summaryOf(result, circuit.deviceRatingA),
+      headroomA: result.headroomA,
+      startHeadroomA: result.startHeadroomA,
+      reasons: result.reasons,
+      steady: { ...steady, ratingA: circuit.deviceRatingA },
+      startUps: result.scenarios,
+      thermal: { allRunning: result.allRunningThermal },
+      loads: prepared.map((p, i) => ({
+        loadId: p.loadId,
+        name: p.input.name,
+        whatIf: p.loadId === null,
+        runningA: p.input.runningA,
+        runningSource: p.input.runningSource,
+        continuous: p.input.continuous,
+        connection: p.input.connection,
+        startPeakA: result.scenarios[i]?.loadPeakA ?? p.input.runningA,
+        startUpSource: result.scenarios[i]?.startUpSource ?? 'running-only',
+        traceIds: p.traceIds,
+      })),
+      warnings: circuitWarnings(circuit),
+      device: result.device,
+      assumptions: [...prepared.flatMap((p) => p.assumptions), ...result.assumptions],
+      cautions: result.cautions,
+      parameters: result.parameters,
+    };
+    return { view, circuit: judged, loads: inputs, parameters: params };
+  }
+
   return {
-    /**
-     * Judges a circuit with its stored loads and any hypothetical `extraLoads`. 404 for a circuit outside the
-     * caller's organisation; 400 naming each bad what-if field; 409 when the circuit as recorded cannot be
-     * judged (e.g. a device outside every trip model).
-     */
+    run,
+    /** The headroom check of a circuit (see {@link run}). */
     async check(scope: Scope, circuitId: string, options: CheckOptions = {}): Promise<CheckView> {
-      const circuit = await circuits.find(scope, circuitId);
-      const extraLoads = options.extraLoads ?? [];
-      const problems = extraLoads.flatMap((l, i) =>
-        loadFigureProblems(l, circuit.nominalVoltageV, { pointerPrefix: `/extraLoads/${i}` }),
-      );
-      if (problems.length > 0) throw invalid(problems);
-
-      const params: CheckParameters = { ...DEFAULT_CHECK_PARAMETERS, ...options.parameters };
-      const stored = await loads.allOfCircuit(scope, circuitId);
-      const prepared: Array<PreparedLoad & { loadId: string | null; traceIds: string[] }> = [];
-      try {
-        for (const load of stored) {
-          prepared.push({ ...prepareStored(load, circuit.nominalVoltageV, params), loadId: load.id, traceIds: load.traceIds });
-        }
-        for (const load of extraLoads) {
-          const p = loadFromNameplate(load, circuit.nominalVoltageV, params);
-          p.input.name = `${load.name} (what-if)`;
-          prepared.push({ ...p, loadId: null, traceIds: [] });
-        }
-      } catch (err) {
-        if (err instanceof RangeError) throw new Problem('conflict', `A load cannot be judged as recorded: ${err.message}`);
-        throw err;
-      }
-
-      let result: HeadroomCheck;
-      try {
-        result = checkCircuitHeadroom(circuitUnderCheck(circuit, prepared.length), prepared.map((p) => p.input), params);
-      } catch (err) {
-        if (err instanceof RangeError) throw new Problem('conflict', `This circuit cannot be checked as recorded: ${err.message}`);
-        throw err;
-      }
-
-      const { reasons: _steadyReasons, ...steady } = result.steady;
-      return {
-        circuitId: circuit.id,
-        circuitLabel: circuit.label,
-        siteId: circuit.siteId,
-        checkedAt: new Date().toISOString(),
-        verdict: result.verdict,
-        verdictLabel: VERDICT_LABELS[result.verdict],
-        summary: summaryOf(result, circuit.deviceRatingA),
-        headroomA: result.headroomA,
-        startHeadroomA: result.startHeadroomA,
-        reasons: result.reasons,
-        steady: { ...steady, ratingA: circuit.deviceRatingA },
-        startUps: result.scenarios,
-        thermal: { allRunning: result.allRunningThermal },
-        loads: prepared.map((p, i) => ({
-          loadId: p.loadId,
-          name: p.input.name,
-          whatIf: p.loadId === null,
-          runningA: p.input.runningA,
-          runningSource: p.input.runningSource,
-          continuous: p.input.continuous,
-          connection: p.input.connection,
-          startPeakA: result.scenarios[i]?.loadPeakA ?? p.input.runningA,
-          startUpSource: result.scenarios[i]?.startUpSource ?? 'running-only',
-          traceIds: p.traceIds,
-        })),
-        warnings: circuitWarnings(circuit),
-        device: result.device,
-        assumptions: [...prepared.flatMap((p) => p.assumptions), ...result.assumptions],
-        cautions: result.cautions,
-        parameters: result.parameters,
-      };
+      return (await run(scope, circuitId, options)).view;
     },
   };
 }

@@ -6,6 +6,7 @@ import { createAuditService } from './audit.js';
 import { createChecksService } from './checks.js';
 import { createCircuitsService } from './circuits.js';
 import { createLoadsService } from './loads.js';
+import { createReportsService } from './reports/index.js';
 import { createSessionsService } from './sessions.js';
 import { createSitesService } from './sites.js';
 
@@ -18,8 +19,9 @@ export function createServices(db: Db, _config: Config) {
   const circuits = createCircuitsService(db, sites);
   const loads = createLoadsService(db, circuits);
   const checks = createChecksService({ circuits, loads });
+  const reports = createReportsService({ db, sites, circuits, checks });
   const analysis = createAnalysisService();
-  return { db, audit, sessions, apiKeys, sites, circuits, loads, checks, analysis };
+  return { db, audit, sessions, apiKeys, sites, circuits, loads, checks, reports, analysis };
 }
 
 export type Services = ReturnType<typeof createServices>;

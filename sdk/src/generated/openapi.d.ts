@@ -212,6 +212,72 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/circuits/{circuitId}/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Report of one circuit (PDF or CSV)
+         * @description PDF: the verdict, each reason with its rule and NEC edition, the loads and their figures, the stacked start-ups, a plot of the worst aligned start-up drawn as vector paths, the assumptions and cautions, the date and who prepared it. CSV: the same figures and findings, one per row; text cells that could start a spreadsheet formula are prefixed with an apostrophe.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getCircuitReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/sites/{siteId}/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Report of every circuit of a site (PDF or CSV)
+         * @description PDF: the verdict, each reason with its rule and NEC edition, the loads and their figures, the stacked start-ups, a plot of the worst aligned start-up drawn as vector paths, the assumptions and cautions, the date and who prepared it. CSV: the same figures and findings, one per row; text cells that could start a spreadsheet formula are prefixed with an apostrophe. A summary of the circuits' verdicts comes first; a circuit that cannot be judged is listed with the reason.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getSiteReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/analyze": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Analyse samples without storing them
+         * @description Statistics, the RMS-series length, inrush events and surges of the samples in the body, stored nowhere. Send `t` (epoch ms or ISO 8601) with `a`, or `values` with `rate` (Hz) and optionally `start`. Times in the answer are epoch milliseconds (`…At`); durations are seconds (`…S`). The body is limited to the JSON body limit (5 MB by default, about 400,000 samples); store larger traces with /traces.
+         *
+         *     Permission `analyze`: roles admin, engineer, viewer; API-key scopes read, ingest.
+         */
+        post: operations["analyzeSamples"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -763,6 +829,133 @@ export interface components {
              * @example 0.3
              */
             startDurationS?: number | null;
+        };
+        AnalyzeResponse: {
+            /** @enum {string} */
+            kind: "rms" | "waveform";
+            sampleCount: number;
+            /** @description Time of the first sample, epoch ms */
+            firstAt: number;
+            /** @description Time of the last sample, epoch ms */
+            lastAt: number;
+            rmsSeriesLength: number;
+            rmsSeriesMethod: string | null;
+            /** @description Peak, RMS, DC, crest and form factor of a waveform; null for rms traces */
+            waveform: {
+                [key: string]: unknown;
+            } | null;
+            /** @description Statistics of the RMS series (see README "What Headroom computes") */
+            statistics: {
+                [key: string]: unknown;
+            };
+            inrushEvents: components["schemas"]["InrushEvent"][];
+            surges: components["schemas"]["Surge"][];
+            onPeriodCount: number;
+            /** @description Every parameter used, defaults included */
+            params: {
+                [key: string]: unknown;
+            };
+        };
+        InrushEvent: {
+            /** @description Switch-on time, epoch ms */
+            onsetAt: number;
+            peakA: number;
+            /** @description Time of the peak, epoch ms */
+            peakAt: number;
+            timeToPeakS: number;
+            steadyA: number;
+            peakToSteadyRatio: number | null;
+            settled: boolean;
+            settleTimeS: number | null;
+            durationS: number;
+            i2tA2s: number;
+        } & {
+            [key: string]: unknown;
+        };
+        Surge: {
+            /** @description epoch ms */
+            startAt: number;
+            /** @description epoch ms */
+            endAt: number;
+            durationS: number;
+            peakA: number;
+            runningA: number;
+            i2tA2s: number;
+        } & {
+            [key: string]: unknown;
+        };
+        AnalyzeRequest: {
+            /**
+             * @description `rms`: each sample is an RMS reading; `waveform`: instantaneous values, uniformly sampled at 1 kHz or more
+             * @enum {string}
+             */
+            kind: "rms" | "waveform";
+            probe?: components["schemas"]["Probe"];
+            /** @description Timestamps: epoch milliseconds or ISO 8601 strings (one format), strictly increasing. With `a`. */
+            t?: (number | string)[];
+            /** @description Readings at the times `t`, in the probe's unit */
+            a?: number[];
+            /** @description Time of the first of `values`: epoch ms or ISO 8601; default 0 */
+            start?: number | string;
+            /** @description Sample rate of `values` (Hz) */
+            rate?: number;
+            /** @description Uniformly sampled readings, in the probe's unit */
+            values?: number[];
+            params?: components["schemas"]["AnalyzeParams"];
+        };
+        Probe: {
+            /**
+             * @description Unit of the raw readings
+             * @enum {string}
+             */
+            inputUnit: "A" | "mA" | "mV";
+            /**
+             * @description Raw units per ampere through the jaw: 1 for amperes or 1 mA/A, 10 for 10 mV/A
+             * @example 1
+             */
+            sensitivityPerA: number;
+            /**
+             * @description Turns of the conductor through the jaw (10 with a x10 splitter loop: readings are divided by 10)
+             * @example 1
+             */
+            loops: number;
+        };
+        AnalyzeParams: {
+            /** @description Mains frequency of a waveform; absent: estimated from zero crossings */
+            mainsFrequencyHz?: number | null;
+            /** @description Voltage for the energy figure; absent: no energy */
+            nominalVoltageV?: number | null;
+            /** @description Power factor for the energy figure; default 1 */
+            powerFactor?: number;
+            /** @description Current levels to report time above */
+            thresholdsA?: number[];
+            /** @description Intervals longer than this x the typical spacing are gaps; default 2.5 */
+            gapFactor?: number;
+            events?: components["schemas"]["EventParams"];
+        };
+        EventParams: {
+            /** @description Fixed on-threshold (A); null or absent: derived from the trace */
+            onThresholdA?: number | null;
+            /** @description Absolute floor of the on-threshold above the baseline (A); default 0.5 */
+            onFloorA?: number;
+            /** @description Share of the running level above baseline at which the load counts as on; default 0.25 */
+            onFraction?: number;
+            /** @description Hysteresis below the on-threshold, as a share; default 0.5 */
+            hysteresisFraction?: number;
+            /** @description Window after the switch-on in which the peak is sought (s); default 10 */
+            maxInrushS?: number;
+            /** @description Settling band as a fraction of the steady current; default 0.1 */
+            settleTolerance?: number;
+            /** @description Time the current must stay in the band (s); default 0.5 */
+            settleHoldS?: number;
+            /** @description Cycles after the switch-on searched for the instantaneous peak (waveforms); default 2 */
+            firstCycles?: number;
+            /** @description Surge: excursion above running as a fraction of it; default 0.25 */
+            surgeThresholdFraction?: number;
+            /** @description Surge: absolute floor of the excursion (A); default 1 */
+            surgeFloorA?: number;
+            /** @description Shortest surge reported (s); default 0.02 */
+            surgeMinDurationS?: number;
         };
     };
     responses: never;
@@ -2081,6 +2274,244 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content?: never;
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getCircuitReport: {
+        parameters: {
+            query?: {
+                /** @description pdf (printable report) or csv (figures and events, one per row) */
+                format?: "pdf" | "csv";
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The report as an attachment */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                    "text/csv": string;
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The circuit as recorded cannot be judged */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getSiteReport: {
+        parameters: {
+            query?: {
+                /** @description pdf (printable report) or csv (figures and events, one per row) */
+                format?: "pdf" | "csv";
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The report as an attachment */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                    "text/csv": string;
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    analyzeSamples: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["AnalyzeRequest"];
+            };
+        };
+        responses: {
+            /** @description The analysis, with every parameter used */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AnalyzeResponse"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
             };
             /** @description Too many requests; see Retry-After */
             429: {

@@ -3,7 +3,8 @@ import { analyzeRoutes } from './analyze.js';
 import { checkRoutes } from './checks.js';
 import { circuitRoutes } from './circuits.js';
 import { loadRoutes } from './loads.js';
+import { reportRoutes } from './reports.js';
 import { siteRoutes } from './sites.js';
 
 /** Every /api/v1 route, in the order of the OpenAPI document. Add a new resource's routes here. */
-export const v1Routes: RouteDefinition[] = [...siteRoutes, ...circuitRoutes, ...loadRoutes, ...checkRoutes, ...analyzeRoutes];
+export const v1Routes: RouteDefinition[] = [...siteRoutes, ...circuitRoutes, ...loadRoutes, ...checkRoutes, ...reportRoutes, ...analyzeRoutes];

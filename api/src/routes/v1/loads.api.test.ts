@@ -1,9 +1,12 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Trace } from '../../models/trace.js';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 
 const counter = { label: 'Counter', nominalVoltageV: 120, mainsHz: 60, deviceRatingA: 20, deviceKind: 'na-thermal-magnetic', conductorSize: '12 AWG', conductorMaterial: 'cu' };
+// Trace rows are written directly: these tests are about the links, not the samples.
+const clamp = JSON.parse('{ "inputUnit": "A", "sensitivityPerA": 1, "loops": 1 }') as Trace['probe'];
 const mixer = { name: 'Stand mixer', nameplateA: 9.5, connection: 'cord-and-plug', motorHp: 0.5, lockedRotorCode: 'j' };
 
 describe('/api/v1 loads', () => {
@@ -71,7 +74,7 @@ describe('/api/v1 loads', () => {
   it('when traces are linked, then the load lists them, and deleting the load keeps the traces', async () => {
     const traceIds = [randomUUID(), randomUUID()];
     for (const id of traceIds) {
-      await t.db.models.Trace.create({ id, organisationId: t.organisationId, siteId: null, circuitId, loadId: null, name: 'rec', kind: 'rms', probe: { inputUnit: 'A', sensitivity: 1, loops: 1 }, nominalVoltageV: 120, mainsHz: 60, startTime: null, sampleRateHz: 1, notes: null });
+      await t.db.models.Trace.create({ id, organisationId: t.organisationId, siteId: null, circuitId, loadId: null, name: 'rec', kind: 'rms', probe: clamp, nominalVoltageV: 120, mainsHz: 60, startTime: null, sampleRateHz: 1, notes: null });
     }
     const { body: load } = await request(t.app).post(`/api/v1/circuits/${circuitId}/loads`).set(await t.auth()).send({ name: 'Recorded', connection: 'cord-and-plug', traceIds });
     expect(load.traceIds.sort()).toEqual([...traceIds].sort());
@@ -98,7 +101,7 @@ describe('/api/v1 loads', () => {
     const site = await m.Site.create({ id: randomUUID(), organisationId: otherOrg, name: 'Theirs', address: null, clientContact: null, notes: null });
     const circuit = await m.Circuit.create({ id: randomUUID(), organisationId: otherOrg, siteId: site.id, ...counter, deviceKind: 'na-thermal-magnetic', conductorMaterial: 'cu', feedsOtherOutlets: true, necEdition: 2023, notes: null });
     const load = await m.Load.create({ id: randomUUID(), organisationId: otherOrg, circuitId: circuit.id, name: 'Their kettle', nameplateA: 12, nameplateW: null, powerFactor: null, connection: 'cord-and-plug', continuous: false, motorHp: null, lockedRotorCode: null, notes: null });
-    const trace = await m.Trace.create({ id: randomUUID(), organisationId: otherOrg, siteId: null, circuitId: null, loadId: null, name: 'theirs', kind: 'rms', probe: { inputUnit: 'A', sensitivity: 1, loops: 1 }, nominalVoltageV: null, mainsHz: null, startTime: null, sampleRateHz: 1, notes: null });
+    const trace = await m.Trace.create({ id: randomUUID(), organisationId: otherOrg, siteId: null, circuitId: null, loadId: null, name: 'theirs', kind: 'rms', probe: clamp, nominalVoltageV: null, mainsHz: null, startTime: null, sampleRateHz: 1, notes: null });
     const auth = await t.auth();
     expect((await request(t.app).get(`/api/v1/circuits/${circuit.id}/loads`).set(auth)).status).toBe(404);
     expect((await request(t.app).post(`/api/v1/circuits/${circuit.id}/loads`).set(auth).send(mixer)).status).toBe(404);
