@@ -140,6 +140,12 @@ export function validateCheckInput(
   assertPositive(circuit.nominalVoltageV, 'circuit.nominalVoltageV');
   if (circuit.mainsHz !== 50 && circuit.mainsHz !== 60) throw new RangeError('circuit.mainsHz must be 50 or 60');
   assertNecEdition(circuit.necEdition, 'circuit.necEdition');
+  if (circuit.conductor) {
+    const { sizeAwg, material } = circuit.conductor;
+    if (typeof sizeAwg !== 'string' || sizeAwg.trim() === '')
+      throw new RangeError('circuit.conductor.sizeAwg must not be empty');
+    if (material !== 'cu' && material !== 'al') throw new RangeError('circuit.conductor.material must be cu or al');
+  }
   if (typeof circuit.alsoFeedsLightingOrOutlets !== 'boolean') {
     throw new RangeError('circuit.alsoFeedsLightingOrOutlets must be true or false');
   }

@@ -287,6 +287,7 @@ describe('bad input', () => {
     ],
     [{}, [load('a', 1, { motor: { horsepower: 0 } })], /loads\[0\]\.motor\.horsepower/],
     [{ deviceKind: 'fuse' as const, ratingA: 40 }, [], /30 A/],
+    [{ conductor: { sizeAwg: '12', material: 'copper' as never } }, [], /circuit\.conductor\.material/],
   ] as const)('rejects %o with a RangeError naming the field', (circuitOverrides, loads, message) => {
     expect(() => checkCircuitHeadroom(circuit(circuitOverrides), loads as readonly LoadUnderCheck[])).toThrow(
       RangeError,
