@@ -235,6 +235,22 @@ describe('thermal verdicts through a duty profile (IEC 60898-1 C16)', () => {
   });
 });
 
+describe('thermal verdict for a steady overload (UL 489, 20 A)', () => {
+  // source: UL 489 calibration — 135 % (27 A) trips within 1 h; 28 A held is above that, so every band member trips
+  it('28 A running together trips every breaker the standard allows, phrased as all loads running', () => {
+    const result = checkCircuitHeadroom(circuit({ alsoFeedsLightingOrOutlets: false }), [
+      load('heater', 14, { connection: 'fastened-in-place' }),
+      load('kiln', 14, { connection: 'fastened-in-place' }),
+    ]);
+    expect(result.allRunningThermal.outcome).toBe('will-trip');
+    expect(result.allRunningThermal.latestTripS!).toBeLessThanOrEqual(3600);
+    const thermal = result.reasons.find((r) => r.ruleId === 'thermal-band')!;
+    expect(thermal.verdict).toBe('over-the-limit');
+    expect(thermal.message).toMatch(/all loads running together \(28 A\)/);
+    expect(thermal.loadName).toBeUndefined();
+  });
+});
+
 describe('warnings, cautions and parameters', () => {
   // source: NEC 240.4(D) (trade-facts 6.2 example 11): 14 AWG Cu on a 20 A breaker → warning, limit 15 A
   it('reports a small conductor as a warning without changing the verdict', () => {
