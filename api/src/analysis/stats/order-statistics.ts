@@ -21,7 +21,7 @@ const SMALL_RANGE = 2048;
 
 /** Four interleaved histograms (counts of one bin land in four places), summed after the pass. */
 let histogram = new Uint32Array(0);
-let binSlot = new Int16Array(0);
+let binSlot = new Int8Array(0);
 let gatherBuffer = new Float64Array(0);
 
 function scratchHistogram(): Uint32Array {
@@ -59,8 +59,9 @@ function countBins(values: SampleArray, from: number, to: number, lo: number, hi
   return hist;
 }
 
-function scratchBinSlots(): Int16Array {
-  if (binSlot.length === 0) binSlot = new Int16Array(BIN_COUNT).fill(-1);
+/** Bin → index of the target it belongs to, or −1 (at most 2 targets per rank asked for; < 128). */
+function scratchBinSlots(): Int8Array {
+  if (binSlot.length === 0) binSlot = new Int8Array(BIN_COUNT).fill(-1);
   return binSlot;
 }
 

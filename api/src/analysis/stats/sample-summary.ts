@@ -187,24 +187,14 @@ export function summarise(
   }
   const uniformIntegrates = explicit === null && dt <= gap;
   const firstThreshold = thresholds.length > 0 ? (thresholds[0] as number) : Number.POSITIVE_INFINITY;
-  for (let b0 = from; b0 < to; b0 += SUMMARY_BLOCK_SAMPLES) {
-    const b1 = Math.min(to, b0 + SUMMARY_BLOCK_SAMPLES);
-    // Intervals ending at samples i0 .. b1 - 1 (each joins a sample to the one before it).
-    const i0 = b0 === from ? from + 1 : b0;
-    let gapsInBlock = 0;
-    if (explicit !== null) gapsInBlock = fusedExplicitPass(acc, a, explicit, b0, i0, b1, gap, firstThreshold, options);
-    else fusedUniformPass(acc, a, b0, i0, b1, uniformIntegrates ? dt : 0, firstThreshold);
-    if (acc.blockSum !== acc.blockSum || acc.blockMin < -MAX_ABS_CURRENT_A || acc.blockMax > MAX_ABS_CURRENT_A) {
-      // NaN poisons the sum; ±Infinity and out-of-range values show in the extremes.
-      throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
-    }
-    mergeBlockMoments(acc, a, b0, b1);
-    for (let k = 1; k < thresholds.length; k++) {
-      const above = explicit !== null
-        ? timeAboveExplicit(a, explicit, i0, b1, thresholds[k] as number, gapsInBlock === 0 ? Number.POSITIVE_INFINITY : gap)
-        : uniformIntegrates ? timeAboveUniform(a, i0, b1, thresholds[k] as number) * dt : 0;
-      acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
-    }
+  scanBlocks(acc, a, explicit, from, to, uniformIntegrates ? dt : 0, gap, firstThreshold, options);
+  // Further thresholds: one pass each (the first one rides along in the main pass).
+  for (let k = 1; k < thresholds.length; k++) {
+    const h = thresholds[k] as number;
+    const above = explicit !== null
+      ? timeAboveExplicit(a, explicit, from + 1, to, h, gap)
+      : uniformIntegrates ? timeAboveUniform(a, from + 1, to, h) * dt : 0;
+    acc.timeAbove[k] = above;
   }
   return {
     count: acc.count,
@@ -236,6 +226,36 @@ function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
   throw new RangeError(`timestamps[${to - 1}] = ${String(t[to - 1])} is not a finite time within ±${MAX_ABS_TIME_S} s`);
 }
 
+/**
+ * The main pass over samples [from, to), block by block: the fused pass (values, intervals, time
+ * above the first threshold), the check for bad values, then the block's moments. Kept out of
+ * `summarise` because V8 compiles these loops worse when they are inlined into a larger function.
+ */
+function scanBlocks(
+  acc: Accumulator,
+  a: SampleArray,
+  explicit: Float64Array | null,
+  from: number,
+  to: number,
+  dt: number,
+  gap: number,
+  h0: number,
+  options: SummariseOptions,
+): void {
+  for (let b0 = from; b0 < to; b0 += SUMMARY_BLOCK_SAMPLES) {
+    const b1 = Math.min(to, b0 + SUMMARY_BLOCK_SAMPLES);
+    // Intervals ending at samples i0 .. b1 - 1 (each joins a sample to the one before it).
+    const i0 = b0 === from ? from + 1 : b0;
+    if (explicit !== null) fusedExplicitPass(acc, a, explicit, b0, i0, b1, gap, h0, options);
+    else fusedUniformPass(acc, a, b0, i0, b1, dt, h0);
+    if (acc.blockSum !== acc.blockSum || acc.blockMin < -MAX_ABS_CURRENT_A || acc.blockMax > MAX_ABS_CURRENT_A) {
+      // NaN poisons the sum; ±Infinity and out-of-range values show in the extremes.
+      throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
+    }
+    mergeBlockMoments(acc, a, b0, b1);
+  }
+}
+
 /** Block state before its fused pass: the block's first sample when no interval ends at it. */
 function startBlock(acc: Accumulator, a: SampleArray, b0: number, i0: number): void {
   const first = i0 > b0 ? (a[b0] as number) : null;
@@ -256,13 +276,13 @@ function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: numb
   let hi = acc.blockMax;
   let loIndex = b0;
   let hiIndex = b0;
-  let previous = a[i0 - 1] as number;
-  let s1 = 0;
-  let s2 = 0;
+  let sumSquares = 0;
   let above = 0;
+  let previous = a[i0 - 1] as number;
   for (let i = i0; i < b1; i++) {
     const v = a[i] as number;
     sum += v;
+    sumSquares += v * v;
     if (v < lo) {
       lo = v;
       loIndex = i;
@@ -271,8 +291,6 @@ function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: numb
       hi = v;
       hiIndex = i;
     }
-    s1 += v + previous;
-    s2 += v * v + previous * previous;
     if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, 1, h0);
     previous = v;
   }
@@ -282,8 +300,14 @@ function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: numb
   acc.blockMax = hi;
   acc.blockMaxIndex = hiIndex;
   if (dt > 0) {
-    acc.integral2x += s1 * dt;
-    acc.integral2x2 += s2 * dt;
+    // With equal spacing the trapezoid sums follow from plain sums: Σ (a[i−1] + a[i]) over the
+    // intervals ending at i0..b1−1 counts every sample twice except a[i0−1] and a[b1−1] once.
+    const before = a[i0 - 1] as number;
+    const last = a[b1 - 1] as number;
+    const valuesFromI0 = i0 > b0 ? sum - (a[b0] as number) : sum;
+    const squaresFromI0 = sumSquares;
+    acc.integral2x += (2 * valuesFromI0 + before - last) * dt;
+    acc.integral2x2 += (2 * squaresFromI0 + before * before - last * last) * dt;
     acc.covered += (b1 - i0) * dt;
     if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above * dt;
   }
@@ -291,7 +315,7 @@ function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: numb
 
 /**
  * The same pass with explicit times: intervals longer than `gap` are recorded as gaps and skipped;
- * a timestamp that is not finite or not increasing is a RangeError. Returns the gaps in the block.
+ * a timestamp that is not finite or not increasing is a RangeError.
  */
 function fusedExplicitPass(
   acc: Accumulator,
@@ -303,7 +327,7 @@ function fusedExplicitPass(
   gap: number,
   h0: number,
   options: SummariseOptions,
-): number {
+): void {
   startBlock(acc, a, b0, i0);
   let sum = acc.blockSum;
   let lo = acc.blockMin;
@@ -316,7 +340,6 @@ function fusedExplicitPass(
   let s2 = 0;
   let covered = 0;
   let above = 0;
-  let gaps = 0;
   for (let i = i0; i < b1; i++) {
     const v = a[i] as number;
     const ti = t[i] as number;
@@ -336,7 +359,6 @@ function fusedExplicitPass(
       covered += dt;
       if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, dt, h0);
     } else if (dt > gap) {
-      gaps += 1;
       recordGap(acc, previousT, ti, options);
     } else {
       throwTimestampError(t, i);
@@ -353,7 +375,6 @@ function fusedExplicitPass(
   acc.integral2x2 += s2;
   acc.covered += covered;
   if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above;
-  return gaps;
 }
 
 /**
