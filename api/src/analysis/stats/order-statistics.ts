@@ -2,13 +2,14 @@
  * Exact order statistics (the k-th smallest values) of a typed array without sorting it or copying it.
  *
  * Method: a histogram pass over the candidate value range finds the bin holding each wanted rank;
- * a second pass gathers the values of those few bins into a small scratch buffer, which is sorted.
- * A bin with too many values to gather is refined by recursing on its exact [min, max] (a bin whose
- * values are all equal answers directly, so heavily repeated values cost nothing more). Because
- * binning by floor((x − lo) · scale) is monotone in x, the bins preserve order and the result is
- * exact. Typical cost: two streaming passes. Extra memory: a 256 KiB histogram and a gather buffer
- * of at most a few MB, kept between calls. Source: selection by bucketing (a radix-select variant);
- * our implementation.
+ * a second pass notes the positions of the values in those few bins, whose values are then sorted.
+ * A bin too crowded to gather is refined by recursing on its exact [min, max] (a bin whose values
+ * are all equal answers directly, so heavily repeated values cost one more pass at most). Because
+ * binning by ⌊(x − lo) · scale⌋ is monotone in x, the bins preserve order and the result is exact.
+ * Typical cost: two streaming passes. Extra memory: a 1 MiB histogram, a 64 KiB bin table and a
+ * position buffer of at most 768 KiB, kept between calls. The hot loops are kept minimal on purpose
+ * (rare work happens after them), which V8 compiles far better. Source: selection by bucketing (a
+ * radix-select variant); our implementation.
  */
 
 import type { SampleArray } from '../validation/assert-input.js';
@@ -19,15 +20,26 @@ const GATHER_LIMIT = 1 << 15;
 /** Ranges with at most this many candidates are gathered and sorted directly. */
 const SMALL_RANGE = 2048;
 
-/** Four interleaved histograms (counts of one bin land in four places), summed after the pass. */
+/** Four interleaved histograms (consecutive values count in different copies), summed after the pass. */
 let histogram = new Uint32Array(0);
+/** Bin → index of the target to gather (≥ 0), or −1. */
 let binSlot = new Int8Array(0);
-let gatherBuffer = new Float64Array(0);
+let positions = new Int32Array(0);
 
 function scratchHistogram(): Uint32Array {
   if (histogram.length === 0) histogram = new Uint32Array(4 * BIN_COUNT);
   else histogram.fill(0);
   return histogram;
+}
+
+function scratchBinSlots(): Int8Array {
+  if (binSlot.length === 0) binSlot = new Int8Array(BIN_COUNT).fill(-1);
+  return binSlot;
+}
+
+function scratchPositions(size: number): Int32Array {
+  if (positions.length < size) positions = new Int32Array(Math.max(size, 1024));
+  return positions;
 }
 
 /**
@@ -59,15 +71,61 @@ function countBins(values: SampleArray, from: number, to: number, lo: number, hi
   return hist;
 }
 
-/** Bin → index of the target it belongs to, or −1 (at most 2 targets per rank asked for; < 128). */
-function scratchBinSlots(): Int8Array {
-  if (binSlot.length === 0) binSlot = new Int8Array(BIN_COUNT).fill(-1);
-  return binSlot;
+/** Positions in values[from, to) of the candidates whose bin is marked in `slots`; returns how many. */
+function notePositions(
+  values: SampleArray,
+  from: number,
+  to: number,
+  lo: number,
+  hi: number,
+  scale: number,
+  all: boolean,
+  slots: Int8Array,
+  out: Int32Array,
+): number {
+  let m = 0;
+  if (all) {
+    for (let i = from; i < to; i++) if ((slots[(((values[i] as number) - lo) * scale) | 0] as number) >= 0) out[m++] = i;
+  } else {
+    for (let i = from; i < to; i++) {
+      const x = values[i] as number;
+      if (x >= lo && x <= hi && (slots[((x - lo) * scale) | 0] as number) >= 0) out[m++] = i;
+    }
+  }
+  return m;
 }
 
-function scratchGather(size: number): Float64Array {
-  if (gatherBuffer.length < size) gatherBuffer = new Float64Array(Math.max(size, 1024));
-  return gatherBuffer;
+/** Exact min and max of the candidates that fall in `bin`. */
+function binExtremes(values: SampleArray, from: number, to: number, lo: number, hi: number, scale: number, bin: number): [number, number] {
+  let min = Number.POSITIVE_INFINITY;
+  let max = Number.NEGATIVE_INFINITY;
+  for (let i = from; i < to; i++) {
+    const x = values[i] as number;
+    if (x >= lo && x <= hi && (((x - lo) * scale) | 0) === bin) {
+      if (x < min) min = x;
+      if (x > max) max = x;
+    }
+  }
+  return [min, max];
+}
+
+/** Sorted copy of the candidates in values[from, to) (for small candidate sets). */
+function sortedCandidates(values: SampleArray, from: number, to: number, lo: number, hi: number, count: number): Float64Array {
+  const sorted = new Float64Array(count);
+  let n = 0;
+  for (let i = from; i < to; i++) {
+    const x = values[i] as number;
+    if (x >= lo && x <= hi) sorted[n++] = x;
+  }
+  return sorted.subarray(0, n).sort();
+}
+
+interface Target {
+  bin: number;
+  /** Candidates in bins before this one. */
+  before: number;
+  count: number;
+  ranks: number[];
 }
 
 /**
@@ -99,23 +157,15 @@ export function selectRanks(
   }
   // (BIN_COUNT − 0.5)/(hi − lo): even with rounding, hi maps below BIN_COUNT, so no clamp is needed.
   const scale = (BIN_COUNT - 0.5) / (hi - lo);
-  const all = candidateCount === to - from;
   if (candidateCount <= SMALL_RANGE || !Number.isFinite(scale)) {
-    const buffer = scratchGather(candidateCount);
-    let n = 0;
-    for (let i = from; i < to; i++) {
-      const x = values[i] as number;
-      if (x >= lo && x <= hi) buffer[n++] = x;
-    }
-    const sorted = buffer.subarray(0, n).sort();
+    const sorted = sortedCandidates(values, from, to, lo, hi, candidateCount);
     for (const r of wanted) result.set(r, sorted[r] as number);
     return result;
   }
-
+  const all = candidateCount === to - from;
   const hist = countBins(values, from, to, lo, hi, scale, all);
 
   // Walk the cumulative counts to find each rank's bin and its rank inside the bin.
-  interface Target { bin: number; before: number; count: number; ranks: number[] }
   const targets: Target[] = [];
   let cumulative = 0;
   let bin = 0;
@@ -126,49 +176,40 @@ export function selectRanks(
     else targets.push({ bin, before: cumulative, count: hist[bin] as number, ranks: [r] });
   }
 
-  // Gather the values of the target bins (up to GATHER_LIMIT each) and their exact min/max.
-  const slots = scratchBinSlots();
-  const offsets: number[] = [];
-  let size = 0;
-  targets.forEach((t, k) => {
-    slots[t.bin] = k;
-    offsets.push(size);
-    size += Math.min(t.count, GATHER_LIMIT);
-  });
-  const buffer = scratchGather(size);
-  const filled = new Int32Array(targets.length);
-  const binMin = new Float64Array(targets.length).fill(Number.POSITIVE_INFINITY);
-  const binMax = new Float64Array(targets.length).fill(Number.NEGATIVE_INFINITY);
-  for (let i = from; i < to; i++) {
-    const x = values[i] as number;
-    if (all || (x >= lo && x <= hi)) {
+  // Gather the values of the bins small enough, in one tight pass noting their positions.
+  const gathered = targets.filter((t) => t.count <= GATHER_LIMIT);
+  const crowded = targets.filter((t) => t.count > GATHER_LIMIT);
+  if (gathered.length > 0) {
+    const slots = scratchBinSlots();
+    const size = gathered.reduce((n, t) => n + t.count, 0);
+    const offsets: number[] = [];
+    let offset = 0;
+    gathered.forEach((t, k) => {
+      slots[t.bin] = k;
+      offsets.push(offset);
+      offset += t.count;
+    });
+    const found = scratchPositions(size);
+    const m = notePositions(values, from, to, lo, hi, scale, all, slots, found);
+    const bins = new Float64Array(size);
+    const filled = new Int32Array(gathered.length);
+    for (let j = 0; j < m; j++) {
+      const x = values[found[j] as number] as number;
       const k = slots[((x - lo) * scale) | 0] as number;
-      if (k >= 0) {
-        const f = filled[k] as number;
-        if (f < GATHER_LIMIT) buffer[(offsets[k] as number) + f] = x;
-        filled[k] = f + 1;
-        if (x < (binMin[k] as number)) binMin[k] = x;
-        if (x > (binMax[k] as number)) binMax[k] = x;
-      }
+      bins[(offsets[k] as number) + (filled[k] as number)] = x;
+      filled[k] = (filled[k] as number) + 1;
     }
-  }
-  for (const t of targets) slots[t.bin] = -1;
-
-  // Answer from gathered bins first (the buffer is reused by the refinements below).
-  const refine: Array<{ target: Target; k: number }> = [];
-  targets.forEach((t, k) => {
-    if (binMin[k] === binMax[k]) {
-      for (const r of t.ranks) result.set(r, binMin[k] as number);
-    } else if (t.count <= GATHER_LIMIT) {
-      const sorted = buffer.subarray(offsets[k] as number, (offsets[k] as number) + t.count).sort();
+    for (const t of gathered) slots[t.bin] = -1;
+    gathered.forEach((t, k) => {
+      const sorted = bins.subarray(offsets[k] as number, (offsets[k] as number) + t.count).sort();
       for (const r of t.ranks) result.set(r, sorted[r - t.before] as number);
-    } else {
-      refine.push({ target: t, k });
-    }
-  });
-  for (const { target, k } of refine) {
-    const inner = selectRanks(values, from, to, binMin[k] as number, binMax[k] as number, target.count, target.ranks.map((r) => r - target.before));
-    for (const r of target.ranks) result.set(r, inner.get(r - target.before) as number);
+    });
+  }
+  // Crowded bins: all equal answers at once; otherwise refine on the bin's exact range.
+  for (const t of crowded) {
+    const [min, max] = binExtremes(values, from, to, lo, hi, scale, t.bin);
+    const inner = selectRanks(values, from, to, min, max, t.count, t.ranks.map((r) => r - t.before));
+    for (const r of t.ranks) result.set(r, inner.get(r - t.before) as number);
   }
   return result;
 }
