@@ -1,3 +1,4 @@
+import cors from 'cors';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
@@ -5,8 +6,10 @@ import path from 'node:path';
 import pino, { type Logger } from 'pino';
 import swaggerUi from 'swagger-ui-express';
 import { authenticate } from './auth/authenticate.js';
+import { rateLimits } from './auth/rate-limits.js';
 import type { Config } from './config/config.js';
 import type { Db } from './db/open.js';
+import type { FakeMailbox } from './mail/fake-smtp-server.js';
 import { notFoundHandler, problemDetails } from './middleware/problem-details.js';
 import { requestLogging } from './middleware/request-logging.js';
 import { buildOpenApiDocument } from './openapi/document.js';
@@ -16,6 +19,8 @@ import { createServices, type Services } from './services/index.js';
 
 export interface AppDeps {
   logger?: Logger;
+  /** The local fake SMTP server's inbox, when it runs (no SMTP_URL): mail goes there, /dev/mailbox shows it. */
+  mailbox?: FakeMailbox;
 }
 
 export interface HeadroomApp extends Express {
@@ -28,7 +33,7 @@ export interface HeadroomApp extends Express {
  */
 export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomApp {
   const logger = deps.logger ?? pino({ level: config.logLevel });
-  const services = createServices(db, config);
+  const services = createServices(db, config, { mailbox: deps.mailbox, logger });
   const app = express() as HeadroomApp;
   Object.assign(app.locals, { services, config, logger });
 
@@ -36,6 +41,11 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   app.set('trust proxy', false);
   app.set('query parser', 'simple');
   app.use(requestLogging(logger));
+  // CORS is off unless CORS_ORIGINS lists the browser origins allowed to call the API (bearer tokens,
+  // no cookies, so no credentials mode).
+  if (config.corsOrigins.length > 0) {
+    app.use('/api', cors({ origin: config.corsOrigins, exposedHeaders: ['Retry-After', 'X-Request-Id', 'RateLimit', 'RateLimit-Policy', 'Location', 'WWW-Authenticate'], maxAge: 600 }));
+  }
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -68,8 +78,16 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   app.use('/api/docs', swaggerUi.serve, swaggerUi.setup(document, { customSiteTitle: 'Headroom API' }));
 
   const v1 = express.Router();
+  const limits = rateLimits(config);
+  v1.use(limits.perAddress);
+  // Account routes take small bodies; a body parsed here is not parsed again below.
+  v1.use('/auth', express.json({ limit: '16kb', type: ['application/json', 'application/*+json'] }));
   v1.use(express.json({ limit: config.jsonBodyLimit, type: ['application/json', 'application/*+json'] }));
   v1.use(authenticate(services));
+  v1.use(limits.perCaller);
+  v1.post('/auth/sign-in', limits.signIn);
+  v1.post('/auth/password-reset', limits.passwordReset);
+  v1.post(['/auth/password-reset/complete', '/auth/invitations/accept'], limits.linkUse);
   mountRoutes(v1, v1Routes, { services, config });
   app.use('/api/v1', v1);
   app.use('/api', notFoundHandler);

@@ -6,8 +6,8 @@ import type { Scope } from './scope.js';
  * permission; this table is the one place that says who holds it (mirrored in the README).
  */
 export const PERMISSIONS = {
-  /** No authentication at all (health, sign-in, docs). */
-  public: { roles: [], keyScopes: [], description: 'anyone' },
+  /** No authentication at all (sign-in, password reset, accepting an invitation). */
+  public: { roles: [], keyScopes: [], description: 'anyone, without credentials' },
   read: { roles: ['admin', 'engineer', 'viewer'], keyScopes: ['read'], description: 'read sites, circuits, loads, traces and checks' },
   write: { roles: ['admin', 'engineer'], keyScopes: [], description: 'create and edit sites, circuits and loads' },
   ingest: { roles: ['admin', 'engineer'], keyScopes: ['ingest'], description: 'create traces and append samples' },
@@ -15,6 +15,7 @@ export const PERMISSIONS = {
   report: { roles: ['admin', 'engineer'], keyScopes: [], description: 'send reports by e-mail' },
   admin: { roles: ['admin'], keyScopes: [], description: 'manage users, API keys and the audit log' },
   self: { roles: ['admin', 'engineer', 'viewer'], keyScopes: ['read', 'ingest'], description: 'the caller\'s own identity' },
+  session: { roles: ['admin', 'engineer', 'viewer'], keyScopes: [], description: 'end the caller\'s own session (sign out)' },
 } as const satisfies Record<string, { roles: readonly Role[]; keyScopes: readonly string[]; description: string }>;
 
 export type Permission = keyof typeof PERMISSIONS;

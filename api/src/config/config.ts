@@ -21,6 +21,10 @@ const EnvSchema = z.object({
   JSON_BODY_LIMIT: z.string().default('5mb'),
   SAMPLE_BODY_LIMIT: z.string().default('2gb'),
   CORS_ORIGINS: z.string().default(''),
+  RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(1200),
+  RATE_LIMIT_IP_PER_MINUTE: z.coerce.number().int().min(1).default(2400),
+  SIGN_IN_FAILURES_PER_15_MIN: z.coerce.number().int().min(1).default(10),
+  PASSWORD_RESETS_PER_HOUR: z.coerce.number().int().min(1).default(5),
   PUBLIC_URL: z.string().url().optional(),
   SEED_DEMO: booleanFromEnv.default(true),
   DASHBOARD_DIR: z.string().default(path.join(repoRoot, 'dashboard', 'dist')),
@@ -38,6 +42,8 @@ export interface Config {
   jsonBodyLimit: string;
   sampleBodyLimit: string;
   corsOrigins: string[];
+  /** Requests per minute per API key or user, per network address, and the stricter account limits. */
+  rateLimits: { perCallerPerMinute: number; perIpPerMinute: number; signInFailuresPer15Min: number; passwordResetsPerHour: number };
   publicUrl: string;
   seedDemo: boolean;
   dashboardDir: string;
@@ -67,6 +73,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     corsOrigins: e.CORS_ORIGINS.split(',')
       .map((s) => s.trim())
       .filter(Boolean),
+    rateLimits: {
+      perCallerPerMinute: e.RATE_LIMIT_PER_MINUTE,
+      perIpPerMinute: e.RATE_LIMIT_IP_PER_MINUTE,
+      signInFailuresPer15Min: e.SIGN_IN_FAILURES_PER_15_MIN,
+      passwordResetsPerHour: e.PASSWORD_RESETS_PER_HOUR,
+    },
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     seedDemo: e.SEED_DEMO,
     dashboardDir: e.DASHBOARD_DIR,
@@ -76,10 +88,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   };
 }
 
-/** Config for tests: an in-memory database, silent logs, no demo seed. */
+/**
+ * Config for tests: an in-memory database, silent logs, no demo seed, general rate limits high enough
+ * for bulk tests (the sign-in and reset limits keep their defaults).
+ */
 export function testConfig(overrides: Partial<Config> = {}): Config {
   return {
-    ...loadConfig({ NODE_ENV: 'test', LOG_LEVEL: 'silent', SEED_DEMO: 'false' }),
+    ...loadConfig({ NODE_ENV: 'test', LOG_LEVEL: 'silent', SEED_DEMO: 'false', RATE_LIMIT_PER_MINUTE: '1000000', RATE_LIMIT_IP_PER_MINUTE: '1000000' }),
     databaseFile: ':memory:',
     ...overrides,
   };

@@ -5,7 +5,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare id: string;
   declare organisationId: string;
   declare action: string;
-  declare actorKind: 'user' | 'key' | 'system' | 'anonymous';
+  declare actorKind: 'user' | 'key' | 'system';
   declare actorId: string | null;
   declare actorLabel: string | null;
   declare targetKind: string | null;

@@ -109,9 +109,14 @@ export function createAuditService(db: Db) {
     actorOf,
     record,
 
+    /** Organisation, actor and address of a scope, to record inside a transaction (look it up before). */
+    async originOf(scope: Scope): Promise<Pick<AuditEntry, 'organisationId' | 'actor' | 'address'>> {
+      return { organisationId: scope.organisationId, actor: await actorOf(scope), address: scope.address };
+    },
+
     /** Records an action taken by the caller of `scope` (actor and address from the scope). */
-    async recordFor(scope: Scope, action: AuditAction, target?: AuditTarget, details?: Record<string, unknown>, transaction?: Transaction) {
-      await record({ organisationId: scope.organisationId, action, actor: await actorOf(scope), target, address: scope.address, details }, transaction);
+    async recordFor(scope: Scope, action: AuditAction, target?: AuditTarget, details?: Record<string, unknown>) {
+      await record({ organisationId: scope.organisationId, action, actor: await actorOf(scope), target, address: scope.address, details });
     },
 
     /** The organisation's audit log, newest first. */

@@ -6,6 +6,7 @@ import pino from 'pino';
 import { createApp, type HeadroomApp } from '../app.js';
 import { testConfig, type Config } from '../config/config.js';
 import { openDatabase, type Db } from '../db/open.js';
+import { startFakeSmtpServer, type FakeMailbox } from '../mail/fake-smtp-server.js';
 import type { Role } from '../models/user.js';
 import { credentialCache } from './credentials.js';
 import { createScratchDatabase, TEST_DATABASE_URL } from './postgres-scratch-database.js';
@@ -16,6 +17,8 @@ export interface TestApp {
   config: Config;
   /** Organisation created for the test. */
   organisationId: string;
+  /** The fake SMTP server (127.0.0.1, random port) the app's mailer sends to, unless `config.smtpUrl` is given. */
+  mailbox: FakeMailbox | undefined;
   /**
    * Headers that authenticate a request as a user of the test organisation with this role (default
    * engineer), or as an API key with these scopes: `request(t.app).get(url).set(await t.auth('viewer'))`.
@@ -42,17 +45,20 @@ export async function makeTestApp(options: { file?: boolean; config?: Partial<Co
   const db = await openDatabase({ databaseFile: config.databaseFile, databaseUrl: config.databaseUrl });
   const organisationId = randomUUID();
   await db.models.Organisation.create({ id: organisationId, name: 'Test organisation' });
-  const app = createApp(config, db, { logger: pino({ level: 'silent' }) });
+  const mailbox = config.smtpUrl ? undefined : await startFakeSmtpServer();
+  const app = createApp(config, db, { logger: pino({ level: 'silent' }), ...(mailbox ? { mailbox } : {}) });
   const credentials = credentialCache(app.locals.services, organisationId);
   return {
     app,
     db,
     config,
     organisationId,
+    mailbox,
     auth(who: Role | { keyScopes: string[] } = 'engineer', options?: { fresh?: boolean }) {
       return credentials(who, options);
     },
     async close() {
+      await mailbox?.close();
       await db.close();
       await scratch?.drop();
       if (dir) rmSync(dir, { recursive: true, force: true });

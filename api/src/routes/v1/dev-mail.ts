@@ -1,0 +1,27 @@
+import { Problem } from '../../errors/problem.js';
+import { defineRoute, type RouteDefinition } from '../define-route.js';
+import { Mailbox } from './schemas/accounts.js';
+
+export const devMailRoutes: RouteDefinition[] = [
+  defineRoute(
+    {
+      method: 'get',
+      path: '/dev/mailbox',
+      operationId: 'getDevMailbox',
+      summary: 'Mail received by the local fake SMTP server (development only)',
+      description:
+        'Only when Headroom runs its own fake SMTP server (no SMTP_URL configured): every message the server sent, newest first, without attachment contents. 404 otherwise. The fake server keeps the mail of every organisation, so only admins may read it.',
+      tags: ['Development'],
+      permission: 'admin',
+      responses: { 200: { description: 'The fake inbox', schema: Mailbox } },
+    },
+    ({ services }) => {
+      if (!services.mailbox) throw new Problem('not-found', 'No local fake mail server runs (SMTP_URL is configured)');
+      const items = services.mailbox
+        .messages()
+        .reverse()
+        .map(({ attachments, ...m }) => ({ ...m, attachments: attachments.map(({ content: _content, ...a }) => a) }));
+      return { status: 200, body: { items } };
+    },
+  ),
+];
