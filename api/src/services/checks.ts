@@ -14,6 +14,7 @@ import type { Scope } from '../auth/scope.js';
 import { invalid, Problem } from '../errors/problem.js';
 import type { Circuit } from '../models/circuit.js';
 import { loadFromNameplate, type PreparedLoad } from './check-inputs.js';
+import { figuresFromTraces, type TraceFigures, type TraceReader } from './trace-figures.js';
 import { circuitWarnings, type CircuitWarning } from './circuit-warnings.js';
 import type { CircuitsService } from './circuits.js';
 import { loadFigureProblems, type LoadFigures } from './load-figures.js';
@@ -39,7 +40,12 @@ export interface CheckedLoad {
   /** Highest start-up current the check used for this load alone, amps. */
   startPeakA: number;
   startUpSource: StackedScenario['startUpSource'];
+  /** Linked traces, and those with samples that the figures came from. */
   traceIds: string[];
+  usedTraceIds: string[];
+  /** Inrush events and surges recorded in the load's traces. */
+  inrushEvents: TraceFigures['inrushEvents'];
+  surges: TraceFigures['surges'];
 }
 
 /** The headroom check of one circuit, as the API answers it. */
@@ -110,12 +116,47 @@ export interface CheckRun {
   parameters: CheckParameters;
 }
 
-export function createChecksService(deps: { circuits: CircuitsService; loads: LoadsService }) {
-  const { circuits, loads } = deps;
+/** A load ready for the check, with where it came from. */
+type Prepared = PreparedLoad & { loadId: string | null; traceIds: string[]; traced: TraceFigures | null };
 
-  /** A stored load for the check: its nameplate (traces join in once trace storage serves their figures). */
-  function prepareStored(load: LoadView, voltageV: number, params: CheckParameters): PreparedLoad {
-    return loadFromNameplate(load, voltageV, params);
+export function createChecksService(deps: {
+  circuits: CircuitsService;
+  loads: LoadsService;
+  traces?: TraceReader | undefined;
+}) {
+  const { circuits, loads, traces } = deps;
+
+  /**
+   * A stored load for the check: from its traces when any linked trace has samples (see trace-figures.ts),
+   * else from its nameplate. A motor's nameplate still supplies the start when its traces recorded none.
+   */
+  async function prepareStored(
+    scope: Scope,
+    load: LoadView,
+    voltageV: number,
+    params: CheckParameters,
+  ): Promise<Prepared> {
+    const base = { loadId: load.id, traceIds: load.traceIds };
+    const traced =
+      traces && load.traceIds.length > 0 ? await figuresFromTraces(traces, scope, load.name, load.traceIds) : null;
+    if (traced === null) {
+      const p = loadFromNameplate(load, voltageV, params);
+      if (load.traceIds.length > 0)
+        p.assumptions.unshift(`${load.name}: its traces hold no samples yet; the nameplate is used.`);
+      return { ...p, ...base, traced: null };
+    }
+    const input: LoadUnderCheck = {
+      name: load.name,
+      runningA: traced.runningA,
+      runningSource: 'trace',
+      continuous: load.continuous,
+      connection: load.connection,
+      startUp: traced.startUp,
+      duty: traced.duty,
+    };
+    if (traced.startUp === null && load.motorHp != null)
+      input.motor = { horsepower: load.motorHp, codeLetter: load.lockedRotorCode };
+    return { input, assumptions: traced.assumptions, ...base, traced };
   }
 
   /**
@@ -133,19 +174,15 @@ export function createChecksService(deps: { circuits: CircuitsService; loads: Lo
 
     const params: CheckParameters = { ...DEFAULT_CHECK_PARAMETERS, ...options.parameters };
     const stored = await loads.allOfCircuit(scope, circuitId);
-    const prepared: Array<PreparedLoad & { loadId: string | null; traceIds: string[] }> = [];
+    const prepared: Prepared[] = [];
     try {
       for (const load of stored) {
-        prepared.push({
-          ...prepareStored(load, circuit.nominalVoltageV, params),
-          loadId: load.id,
-          traceIds: load.traceIds,
-        });
+        prepared.push(await prepareStored(scope, load, circuit.nominalVoltageV, params));
       }
       for (const load of extraLoads) {
         const p = loadFromNameplate(load, circuit.nominalVoltageV, params);
         p.input.name = `${load.name} (what-if)`;
-        prepared.push({ ...p, loadId: null, traceIds: [] });
+        prepared.push({ ...p, loadId: null, traceIds: [], traced: null });
       }
     } catch (err) {
       if (err instanceof RangeError)
@@ -190,6 +227,9 @@ export function createChecksService(deps: { circuits: CircuitsService; loads: Lo
         startPeakA: result.scenarios[i]?.loadPeakA ?? p.input.runningA,
         startUpSource: result.scenarios[i]?.startUpSource ?? 'running-only',
         traceIds: p.traceIds,
+        usedTraceIds: p.traced?.usedTraceIds ?? [],
+        inrushEvents: p.traced?.inrushEvents ?? [],
+        surges: p.traced?.surges ?? [],
       })),
       warnings: circuitWarnings(circuit),
       device: result.device,

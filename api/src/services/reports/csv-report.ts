@@ -53,6 +53,19 @@ function circuitRows(site: string, data: CircuitReportData): Row[] {
     rows.push(row('load', 'connection', l.connection, null, load));
     if (l.whatIf) rows.push(row('load', 'whatIf', 'yes', null, load));
     for (const traceId of l.traceIds) rows.push(row('load', 'traceId', traceId, null, load));
+    for (const e of l.inrushEvents) {
+      const at = { ...load, detail: `trace ${e.traceId} at ${new Date(e.onsetAt).toISOString()}` };
+      rows.push(row('inrush', 'peakA', e.peakA, 'A', at));
+      rows.push(row('inrush', 'steadyA', e.steadyA, 'A', at));
+      rows.push(row('inrush', 'timeToPeakS', e.timeToPeakS, 's', at));
+      rows.push(row('inrush', 'settleTimeS', e.settleTimeS, 's', at));
+      rows.push(row('inrush', 'i2tA2s', e.i2tA2s, 'A2s', at));
+    }
+    for (const surge of l.surges) {
+      const at = { ...load, detail: `trace ${surge.traceId} at ${new Date(surge.startAt).toISOString()}` };
+      rows.push(row('surge', 'peakA', surge.peakA, 'A', at));
+      rows.push(row('surge', 'durationS', surge.durationS, 's', at));
+    }
   }
   for (const s of check.startUps) {
     const load = { load: s.startingLoad };

@@ -42,6 +42,11 @@ function thermalWords(t: CircuitReportData['check']['thermal']['allRunning']): s
     : `may trip: typical after ${seconds(t.estimatedTripS)}`;
 }
 
+/** "2026-12-02 09:15:07.250" (UTC) for an event at epoch ms. */
+function eventTime(epochMs: number): string {
+  return new Date(epochMs).toISOString().slice(0, 23).replace('T', ' ');
+}
+
 /** "2026-12-02 09:15 UTC": unambiguous in any locale. */
 export function formatReportDate(date: Date): string {
   return `${date.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
@@ -176,6 +181,28 @@ function circuitSection(doc: Doc, data: CircuitReportData): void {
       l.startUpSource,
     ]),
   );
+
+  const events = check.loads.flatMap((l) => l.inrushEvents.map((e) => ({ load: l.name, ...e })));
+  const surges = check.loads.flatMap((l) => l.surges.map((e) => ({ load: l.name, ...e })));
+  if (events.length + surges.length > 0) {
+    heading(doc, 'Recorded start-ups (inrush) and surges');
+    table(
+      doc,
+      [
+        { header: 'Load', width: 130 },
+        { header: 'Event', width: 45 },
+        { header: 'At (UTC)', width: 105 },
+        { header: 'Peak A', width: 50, align: 'right' },
+        { header: 'Running A', width: 55, align: 'right' },
+        { header: 'Lasts s', width: 50, align: 'right' },
+        { header: 'I²t A²s', width: 65, align: 'right' },
+      ],
+      [
+        ...events.map((e) => [e.load, 'inrush', eventTime(e.onsetAt), amps(e.peakA), amps(e.steadyA), amps(e.settleTimeS ?? e.durationS), amps(e.i2tA2s)]),
+        ...surges.map((e) => [e.load, 'surge', eventTime(e.startAt), amps(e.peakA), amps(e.runningA), amps(e.durationS), amps(e.i2tA2s)]),
+      ],
+    );
+  }
 
   heading(doc, 'Start-ups stacked on the running loads (worst-case alignment)');
   table(

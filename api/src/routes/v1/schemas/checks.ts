@@ -106,7 +106,23 @@ const CheckedLoad = z
     connection: z.enum(LOAD_CONNECTIONS),
     startPeakA: z.number(),
     startUpSource: StartUpScenario.shape.startUpSource,
-    traceIds: z.array(Id),
+    traceIds: z.array(Id).openapi({ description: 'Traces linked to the load' }),
+    usedTraceIds: z.array(Id).openapi({ description: 'Linked traces with samples, which the figures come from (empty: nameplate)' }),
+    inrushEvents: z.array(
+      z.object({
+        traceId: Id,
+        onsetAt: z.number().openapi({ description: 'Epoch ms' }),
+        peakA: z.number(),
+        steadyA: z.number(),
+        timeToPeakS: z.number(),
+        settleTimeS: z.number().nullable(),
+        durationS: z.number(),
+        i2tA2s: z.number(),
+      }).loose(),
+    ),
+    surges: z.array(
+      z.object({ traceId: Id, startAt: z.number(), durationS: z.number(), peakA: z.number(), runningA: z.number(), i2tA2s: z.number() }).loose(),
+    ),
   })
   .openapi('CheckedLoad');
 
