@@ -144,7 +144,7 @@ export interface DemoTrace {
   samples: () => Float32Array;
 }
 
-const CLAMP: ProbeSettings = { inputUnit: 'A', sensitivity: 1, loops: 1 };
+const CLAMP: ProbeSettings = { inputUnit: 'A', sensitivityPerA: 1, loops: 1 };
 
 export const DEMO_TRACES: DemoTrace[] = [
   {
@@ -191,7 +191,7 @@ export const DEMO_TRACES: DemoTrace[] = [
     mainsHz: 60,
     sampleRateHz: 2,
     startedMinutesAgo: 600,
-    probe: { inputUnit: 'mV', sensitivity: 10, loops: 1 },
+    probe: { inputUnit: 'mV', sensitivityPerA: 10, loops: 1 },
     tags: ['cooler', 'compressor'],
     notes: 'Logger on the circuit conductor in the panel (10 mV/A clamp), 0.5 s interval.',
     samples: () => compressorCyclingRms({ rateHz: 2, durationS: 7200, onS: 540, offS: 360, firstStartS: 120, runningA: 9.6, lockedRotorA: 50, startTauS: 0.35, seed: 13 }),
@@ -218,10 +218,10 @@ export const DEMO_TRACES: DemoTrace[] = [
 /** Raw readings for a trace: the demo generators give amps; scale back through the probe (e.g. mV). */
 export function rawReadings(trace: DemoTrace): Float32Array {
   const amps = trace.samples();
-  const { inputUnit, sensitivity, loops } = trace.probe;
-  if (inputUnit === 'A' && sensitivity === 1 && loops === 1) return amps;
+  const { inputUnit, sensitivityPerA, loops } = trace.probe;
+  if (inputUnit === 'A' && sensitivityPerA === 1 && loops === 1) return amps;
   const out = new Float32Array(amps.length);
-  for (let i = 0; i < amps.length; i++) out[i] = amps[i]! * sensitivity * loops;
+  for (let i = 0; i < amps.length; i++) out[i] = amps[i]! * sensitivityPerA * loops;
   return out;
 }
 

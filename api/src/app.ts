@@ -15,6 +15,7 @@ import { requestLogging } from './middleware/request-logging.js';
 import { buildOpenApiDocument } from './openapi/document.js';
 import { mountRoutes } from './routes/define-route.js';
 import { v1Routes } from './routes/v1/index.js';
+import { streamsOwnBody } from './routes/v1/traces.js';
 import { createServices, type Services } from './services/index.js';
 
 export interface AppDeps {
@@ -82,7 +83,9 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   v1.use(limits.perAddress);
   // Account routes take small bodies; a body parsed here is not parsed again below.
   v1.use('/auth', express.json({ limit: '16kb', type: ['application/json', 'application/*+json'] }));
-  v1.use(express.json({ limit: config.jsonBodyLimit, type: ['application/json', 'application/*+json'] }));
+  const jsonBody = express.json({ limit: config.jsonBodyLimit, type: ['application/json', 'application/*+json'] });
+  // Sample uploads stream their own body, whatever its size (services/traces-ingest.ts).
+  v1.use((req, res, next) => (streamsOwnBody(req) ? next() : jsonBody(req, res, next)));
   v1.use(authenticate(services));
   v1.use(limits.perCaller);
   v1.post('/auth/sign-in', limits.signIn);

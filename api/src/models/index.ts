@@ -8,6 +8,10 @@ import { Organisation } from './organisation.js';
 import { Session } from './session.js';
 import { Site } from './site.js';
 import { Trace } from './trace.js';
+import { TraceAnalysis } from './trace-analysis.js';
+import { TraceChunk } from './trace-chunk.js';
+import { TraceChunkData } from './trace-chunk-data.js';
+import { IdempotencyKey } from './idempotency-key.js';
 import { User } from './user.js';
 
 /**
@@ -22,6 +26,10 @@ export function initModels(sequelize: Sequelize) {
     Circuit: Circuit.initModel(sequelize),
     Load: Load.initModel(sequelize),
     Trace: Trace.initModel(sequelize),
+    TraceChunk: TraceChunk.initModel(sequelize),
+    TraceChunkData: TraceChunkData.initModel(sequelize),
+    TraceAnalysis: TraceAnalysis.initModel(sequelize),
+    IdempotencyKey: IdempotencyKey.initModel(sequelize),
     Session: Session.initModel(sequelize),
     ApiKey: ApiKey.initModel(sequelize),
     ApiKeyAddress: ApiKeyAddress.initModel(sequelize),

@@ -9,7 +9,7 @@ export type TraceStatus = (typeof TRACE_STATUSES)[number];
 export interface ProbeSettings {
   inputUnit: 'A' | 'mA' | 'mV';
   /** Raw units per ampere at the jaw, e.g. 1 (A/A), 1 (mA/A), 10 (mV/A). */
-  sensitivity: number;
+  sensitivityPerA: number;
   /** Turns of the conductor through the jaw (a x10 splitter loop is 10). */
   loops: number;
 }
@@ -31,7 +31,19 @@ export class Trace extends Model<InferAttributes<Trace>, InferCreationAttributes
   declare sampleRateHz: number | null;
   declare tags: CreationOptional<string[]>;
   declare notes: string | null;
+  /** Mergeable summary of every stored sample in raw probe units (storage/summary-rows.ts), kept current on each append. */
   declare summary: CreationOptional<Record<string, unknown> | null>;
+  // Storage state, written by the chunk store (api/src/storage) in the same transaction as the samples.
+  declare sampleCount: CreationOptional<number>;
+  /** Committed chunks; chunks with seq >= chunkCount belong to a batch still being written. */
+  declare chunkCount: CreationOptional<number>;
+  /** Microseconds since the epoch of time 0 of the stored summaries (the first sample's time). */
+  declare originUs: CreationOptional<number | null>;
+  declare firstSampleUs: CreationOptional<number | null>;
+  declare lastSampleUs: CreationOptional<number | null>;
+  /** Intervals longer than this (s) are gaps; fixed once the trace has two samples. */
+  declare gapThresholdS: CreationOptional<number | null>;
+  declare closedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -54,6 +66,13 @@ export class Trace extends Model<InferAttributes<Trace>, InferCreationAttributes
         tags: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
         notes: { type: DataTypes.TEXT, allowNull: true },
         summary: { type: DataTypes.JSON, allowNull: true },
+        sampleCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        chunkCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        originUs: { type: DataTypes.DOUBLE, allowNull: true },
+        firstSampleUs: { type: DataTypes.DOUBLE, allowNull: true },
+        lastSampleUs: { type: DataTypes.DOUBLE, allowNull: true },
+        gapThresholdS: { type: DataTypes.DOUBLE, allowNull: true },
+        closedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

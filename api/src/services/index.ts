@@ -14,6 +14,7 @@ import { createReportsService } from './reports/index.js';
 import { createOneTimeTokensService } from './one-time-tokens.js';
 import { createSessionsService } from './sessions.js';
 import { createSitesService } from './sites.js';
+import { createTracesService } from './traces.js';
 import { createUsersService } from './users.js';
 
 /** What services need besides the database and config: the fake mailbox when it runs, a logger. */
@@ -35,10 +36,11 @@ export function createServices(db: Db, config: Config, extras: ServiceExtras = {
   const sites = createSitesService(db);
   const circuits = createCircuitsService(db, sites);
   const loads = createLoadsService(db, circuits);
-  const checks = createChecksService({ circuits, loads });
+  const traces = createTracesService(db, config);
+  const checks = createChecksService({ circuits, loads, traces });
   const reports = createReportsService({ db, sites, circuits, checks });
   const analysis = createAnalysisService();
-  return { db, mailer, mailbox, audit, sessions, apiKeys, users, accounts, sites, circuits, loads, checks, reports, analysis };
+  return { db, mailer, mailbox, audit, sessions, apiKeys, users, accounts, sites, circuits, loads, checks, reports, analysis, traces };
 }
 
 export type Services = ReturnType<typeof createServices>;

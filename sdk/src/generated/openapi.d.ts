@@ -184,6 +184,200 @@ export interface paths {
         patch: operations["updateLoad"];
         trace?: never;
     };
+    "/traces": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * List traces
+         * @description Filters combine (and); `q` searches names and notes. Pages follow `nextCursor`.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["listTraces"];
+        put?: never;
+        /**
+         * Create a trace (no samples yet)
+         * @description Then send samples with POST /traces/{traceId}/samples and close it with POST /traces/{traceId}/close.
+         *
+         *     Permission `ingest`: roles admin, engineer; API-key scopes ingest.
+         */
+        post: operations["createTrace"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Create a trace from a CSV file in one step
+         * @description Multipart form: the trace's fields and the CSV reading options (as for POST /traces/{traceId}/samples), then the file in the field `file`. The trace is created and filled in one batch; when the file has an error (named by line) nothing is kept.
+         *
+         *     Permission `ingest`: roles admin, engineer; API-key scopes ingest.
+         */
+        post: operations["importTrace"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/{traceId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Get a trace with the statistics of its samples
+         * @description Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getTrace"];
+        put?: never;
+        post?: never;
+        /**
+         * Delete a trace with its samples
+         * @description Permission `write`: roles admin, engineer; API-key scopes none.
+         */
+        delete: operations["deleteTrace"];
+        options?: never;
+        head?: never;
+        /**
+         * Update a trace's metadata
+         * @description Changing the probe, voltage or mains frequency of a closed trace runs its analysis again.
+         *
+         *     Permission `write`: roles admin, engineer; API-key scopes none.
+         */
+        patch: operations["updateTrace"];
+        trace?: never;
+    };
+    "/traces/{traceId}/samples": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Export the samples of a window (streamed)
+         * @description CSV (`time_ms,reading_<unit>`) or JSON in the append format (`{"t": [...], "a": [...]}`): what was sent comes back bit for bit.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["exportSamples"];
+        put?: never;
+        /**
+         * Append a batch of samples
+         * @description JSON (`{"t": [...], "a": [...]}` or `{"start", "rate", "values"}`), NDJSON (one `{"t", "a"}` per line), CSV (header row; columns, time format, separator, decimal mark and unit detected or given as query parameters) or little-endian float32/float64 (`application/octet-stream`, at `start` and `rate`). The batch must come after the samples already stored (409 naming the overlap otherwise) and is stored completely or not at all. With an `Idempotency-Key`, a retry returns the first answer (header `Idempotent-Replayed: true`) and stores nothing twice.
+         *
+         *     Permission `ingest`: roles admin, engineer; API-key scopes ingest.
+         */
+        post: operations["appendSamples"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/{traceId}/close": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Close a trace: analyse it and store its inrush events and surges
+         * @description A closed trace takes no more samples. The analysis is the one POST /analyze gives, over every stored sample.
+         *
+         *     Permission `ingest`: roles admin, engineer; API-key scopes ingest.
+         */
+        post: operations["closeTrace"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/{traceId}/stats": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Statistics of a window of a trace
+         * @description Assembled from the stored chunk summaries and the two edge chunks, so any window costs about the same. Percentiles need `percentiles=true` (reads the window's samples). The whole of a closed rms trace answers with the statistics stored at close.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getTraceStats"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/{traceId}/series": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Chart envelope of a window: at most `points` buckets with min, max and mean
+         * @description Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getTraceSeries"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/traces/{traceId}/events": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Inrush events and surges of a trace
+         * @description Those stored at close; with any parameter given (or on an open trace) they are computed for this request.
+         *
+         *     Permission `read`: roles admin, engineer, viewer; API-key scopes read.
+         */
+        get: operations["getTraceEvents"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/circuits/{circuitId}/check": {
         parameters: {
             query?: never;
@@ -929,6 +1123,279 @@ export interface components {
             /** @description Traces recorded on this load (sets each trace's loadId; replaces the previous links) */
             traceIds?: string[];
         };
+        TracePage: {
+            items: components["schemas"]["Trace"][];
+            nextCursor: string | null;
+            total: number;
+        };
+        Trace: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            id: string;
+            name: string;
+            /** @enum {string} */
+            kind: "rms" | "waveform";
+            /**
+             * @description `open` while samples arrive; `closed` once analysed
+             * @enum {string}
+             */
+            status: "open" | "closed";
+            siteId: string | null;
+            circuitId: string | null;
+            loadId: string | null;
+            probe: components["schemas"]["Probe"];
+            nominalVoltageV: number | null;
+            mainsHz: number | null;
+            /** @description Epoch ms */
+            startTime: number | null;
+            sampleRateHz: number | null;
+            tags: string[];
+            notes: string | null;
+            sampleCount: number;
+            /** @description Time of the first stored sample, epoch ms */
+            firstSampleTime: number | null;
+            /** @description Time of the last stored sample, epoch ms */
+            lastSampleTime: number | null;
+            summary: components["schemas"]["TraceStatistics"];
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            createdAt: string;
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            updatedAt: string;
+            /**
+             * @description ISO 8601 date-time
+             * @example 2026-11-30T09:15:00.000Z
+             */
+            closedAt: string | null;
+        };
+        Probe: {
+            /**
+             * @description Unit of the raw readings
+             * @enum {string}
+             */
+            inputUnit: "A" | "mA" | "mV";
+            /**
+             * @description Raw units per ampere through the jaw: 1 for amperes or 1 mA/A, 10 for 10 mV/A
+             * @example 1
+             */
+            sensitivityPerA: number;
+            /**
+             * @description Turns of the conductor through the jaw (10 with a x10 splitter loop: readings are divided by 10)
+             * @example 1
+             */
+            loops: number;
+        };
+        /** @description Statistics of every stored sample, kept current on each append (no percentiles) */
+        TraceStatistics: {
+            [key: string]: unknown;
+        } | null;
+        TraceCreate: {
+            /** @example Dough mixer, Tuesday batch */
+            name: string;
+            probe?: components["schemas"]["Probe"] & unknown;
+            /** @description Default: the circuit's */
+            nominalVoltageV?: number | null;
+            /** @description Default: the circuit's */
+            mainsHz?: number | null;
+            /**
+             * @description When the recording started; needed for timestamps given as seconds from the start
+             * @example 2026-11-30T09:15:00Z
+             */
+            startTime?: number | string | null;
+            /** @description Sample rate of a uniform series (required for waveform traces, at least 1 kHz) */
+            sampleRateHz?: number | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            siteId?: string | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            circuitId?: string | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            loadId?: string | null;
+            tags?: string[];
+            notes?: string | null;
+            /**
+             * @description `rms`: each sample an RMS reading; `waveform`: instantaneous values at 1 kHz or more
+             * @enum {string}
+             */
+            kind: "rms" | "waveform";
+        };
+        ImportResult: {
+            trace: components["schemas"]["Trace"];
+            import: components["schemas"]["AppendResult"];
+        };
+        AppendResult: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            traceId: string;
+            /** @description Samples stored */
+            accepted: number;
+            /** @description CSV rows skipped as missing readings */
+            skipped: number;
+            /** @description First sample of the batch, epoch ms */
+            firstTime: number;
+            /** @description Last sample of the batch, epoch ms */
+            lastTime: number;
+            /** @description Samples in the trace after the batch */
+            sampleCount: number;
+            firstSampleTime: number | null;
+            lastSampleTime: number | null;
+            /** @description How a CSV body was read */
+            csv: {
+                columns: {
+                    time: string | null;
+                    date: string | null;
+                    value: string;
+                };
+                delimiter: string;
+                decimal: string;
+                /** @enum {string} */
+                unit: "A" | "mA" | "mV";
+            } | null;
+            /** @enum {string|null} */
+            timeFormat: "epoch-ms" | "epoch-s" | "seconds" | "iso" | "d/m/y" | "m/d/y" | "y/m/d" | null;
+        };
+        TraceUpdate: {
+            /** @example Dough mixer, Tuesday batch */
+            name?: string;
+            probe?: components["schemas"]["Probe"] & unknown;
+            /** @description Default: the circuit's */
+            nominalVoltageV?: number | null;
+            /** @description Default: the circuit's */
+            mainsHz?: number | null;
+            /**
+             * @description When the recording started; needed for timestamps given as seconds from the start
+             * @example 2026-11-30T09:15:00Z
+             */
+            startTime?: number | string | null;
+            /** @description Sample rate of a uniform series (required for waveform traces, at least 1 kHz) */
+            sampleRateHz?: number | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            siteId?: string | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            circuitId?: string | null;
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            loadId?: string | null;
+            tags?: string[];
+            notes?: string | null;
+        };
+        /** @description Either t and a, or start, rate and values */
+        SampleBatch: {
+            /** @description Timestamps: epoch ms (numbers from 1e11), ISO 8601 strings, or seconds from the trace start (smaller numbers); one format, increasing */
+            t?: (number | string)[];
+            /** @description Readings at the times t, in the probe's unit */
+            a?: number[];
+            /** @description Time of values[0] (epoch ms or ISO 8601); absent or null: after the stored series, or the trace's start time */
+            start?: number | string | null;
+            /** @description Sample rate of values (Hz); default the trace's */
+            rate?: number;
+            /** @description Readings at a uniform rate */
+            values?: number[];
+        };
+        TraceClosed: {
+            trace: components["schemas"]["Trace"];
+            /** @description As POST /analyze answers: statistics, inrush events, surges, parameters */
+            analysis: {
+                [key: string]: unknown;
+            };
+        };
+        TraceStats: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            traceId: string;
+            fromTime: number | null;
+            toTime: number | null;
+            /**
+             * @description Chunk summaries (fast, no percentiles), the samples, or the analysis stored at close
+             * @enum {string}
+             */
+            source: "summaries" | "samples" | "analysis";
+            statistics: components["schemas"]["TraceStatistics"] & unknown;
+        };
+        TraceSeries: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            traceId: string;
+            fromTime: number | null;
+            toTime: number | null;
+            points: number;
+            /**
+             * @description What the buckets were built from
+             * @enum {string}
+             */
+            level: "samples" | "blocks" | "chunks";
+            sampleCount: number;
+            /** @description Middle of each bucket, epoch ms */
+            t: number[];
+            startTime: number[];
+            endTime: number[];
+            /** @description Samples per bucket; 0 for the empty bucket spanning a gap */
+            count: number[];
+            /** @description Amperes; null in a gap */
+            min: (number | null)[];
+            max: (number | null)[];
+            mean: (number | null)[];
+            /** @description Waveform traces: the half-cycle RMS series per bucket (null for rms traces or long windows of open traces) */
+            rms: {
+                min: (number | null)[];
+                max: (number | null)[];
+                mean: (number | null)[];
+                /** @enum {string} */
+                source: "analysis" | "computed";
+            } | null;
+        };
+        TraceEvents: {
+            /**
+             * @description Identifier
+             * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+             */
+            traceId: string;
+            /**
+             * @description Stored at close, or computed for this request (open trace or parameters given)
+             * @enum {string}
+             */
+            source: "stored" | "computed";
+            /** @description Start-ups: onsetAt, peakA, peakAt, steadyA, peakToSteadyRatio, settleTimeS, i2tA2s… (times epoch ms) */
+            inrushEvents: {
+                [key: string]: unknown;
+            }[];
+            surges: {
+                [key: string]: unknown;
+            }[];
+            onPeriodCount: number;
+            params: {
+                [key: string]: unknown;
+            } | null;
+        };
         HeadroomCheck: {
             /**
              * @description Identifier
@@ -1236,23 +1703,6 @@ export interface components {
             /** @description Uniformly sampled readings, in the probe's unit */
             values?: number[];
             params?: components["schemas"]["AnalyzeParams"];
-        };
-        Probe: {
-            /**
-             * @description Unit of the raw readings
-             * @enum {string}
-             */
-            inputUnit: "A" | "mA" | "mV";
-            /**
-             * @description Raw units per ampere through the jaw: 1 for amperes or 1 mA/A, 10 for 10 mV/A
-             * @example 1
-             */
-            sensitivityPerA: number;
-            /**
-             * @description Turns of the conductor through the jaw (10 with a x10 splitter loop: readings are divided by 10)
-             * @example 1
-             */
-            loops: number;
         };
         AnalyzeParams: {
             /** @description Mains frequency of a waveform; absent: estimated from zero crossings */
@@ -2636,6 +3086,1117 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["Load"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    listTraces: {
+        parameters: {
+            query?: {
+                /** @description Page size */
+                limit?: number;
+                /** @description Opaque cursor from the previous page's `nextCursor` */
+                cursor?: string;
+                /** @description Order; `-` for descending. Default `-createdAt` (newest first) */
+                sort?: "createdAt" | "-createdAt" | "name" | "-name" | "startTime" | "-startTime";
+                /** @description Identifier */
+                siteId?: string;
+                /** @description Identifier */
+                circuitId?: string;
+                /** @description Identifier */
+                loadId?: string;
+                kind?: "rms" | "waveform";
+                status?: "open" | "closed";
+                /** @description Epoch milliseconds or ISO 8601 (UTC when no offset is given) */
+                createdFrom?: number | string;
+                /** @description Epoch milliseconds or ISO 8601 (UTC when no offset is given) */
+                createdTo?: number | string;
+                /** @description Text in the name or notes */
+                q?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A page of traces */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TracePage"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    createTrace: {
+        parameters: {
+            query?: never;
+            header?: {
+                /** @description A retry with the same key returns the first answer and does the work once */
+                "idempotency-key"?: string;
+            };
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["TraceCreate"];
+            };
+        };
+        responses: {
+            /** @description The new trace */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Trace"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    importTrace: {
+        parameters: {
+            query?: never;
+            header?: {
+                /** @description A retry with the same key returns the first answer and does the work once */
+                "idempotency-key"?: string;
+            };
+            path?: never;
+            cookie?: never;
+        };
+        /** @description A CSV file (field `file`) and the new trace's fields. Send the fields before the file: the file is read as it arrives. Errors name the line of the file. */
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    name: string;
+                    /**
+                     * @default rms
+                     * @enum {string}
+                     */
+                    kind?: "rms" | "waveform";
+                    /**
+                     * @default A
+                     * @enum {string}
+                     */
+                    inputUnit?: "A" | "mA" | "mV";
+                    /** @default 1 */
+                    sensitivityPerA?: number;
+                    /** @default 1 */
+                    loops?: number;
+                    nominalVoltageV?: number;
+                    mainsHz?: number;
+                    /**
+                     * @description Epoch milliseconds or ISO 8601 (UTC when no offset is given)
+                     * @example 2026-11-30T09:15:00Z
+                     */
+                    startTime?: number | string;
+                    sampleRateHz?: number;
+                    /**
+                     * @description Identifier
+                     * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+                     */
+                    siteId?: string;
+                    /**
+                     * @description Identifier
+                     * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+                     */
+                    circuitId?: string;
+                    /**
+                     * @description Identifier
+                     * @example 0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11
+                     */
+                    loadId?: string;
+                    /** @description Comma-separated */
+                    tags?: string;
+                    notes?: string;
+                    /** @description Uniform data (binary, CSV without times): time of the first reading, epoch ms or ISO 8601. Default: right after the stored series, or the trace's startTime */
+                    start?: string;
+                    /** @description Uniform data: sample rate in Hz. Default: the trace's sampleRateHz */
+                    rate?: number;
+                    /**
+                     * @description Binary bodies: little-endian float32 (default) or float64
+                     * @enum {string}
+                     */
+                    valueType?: "float32" | "float64";
+                    /**
+                     * @description Format of the timestamps; default: detected from the first one
+                     * @enum {string}
+                     */
+                    timeFormat?: "epoch-ms" | "epoch-s" | "seconds" | "iso" | "d/m/y" | "m/d/y" | "y/m/d";
+                    /**
+                     * @description Offset of date-times written without one, e.g. +01:00; default UTC
+                     * @example +01:00
+                     */
+                    utcOffset?: string;
+                    /**
+                     * @description CSV: field separator; default detected from the header
+                     * @enum {string}
+                     */
+                    delimiter?: "comma" | "semicolon" | "tab" | "pipe" | "," | ";" | "\t" | "|";
+                    /**
+                     * @description CSV: decimal mark; default detected
+                     * @enum {string}
+                     */
+                    decimal?: "." | "," | "point" | "comma";
+                    /** @description CSV: header name or 1-based position of the time column */
+                    timeColumn?: string;
+                    /** @description CSV: the date column, when date and time are separate */
+                    dateColumn?: string;
+                    /** @description CSV: header name or 1-based position of the readings */
+                    valueColumn?: string;
+                    /**
+                     * @description CSV: unit of the readings; default from the header, else the probe's
+                     * @enum {string}
+                     */
+                    unit?: "A" | "mA" | "mV";
+                    /** @description CSV: comma-separated markers of a missing reading (the row is skipped), e.g. `?` */
+                    missing?: string;
+                    /**
+                     * Format: binary
+                     * @description The CSV file
+                     */
+                    file: string;
+                };
+            };
+        };
+        responses: {
+            /** @description The new trace and how its file was read */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ImportResult"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getTrace: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The trace */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Trace"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    deleteTrace: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Deleted */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    updateTrace: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["TraceUpdate"];
+            };
+        };
+        responses: {
+            /** @description The updated trace */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Trace"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    exportSamples: {
+        parameters: {
+            query?: {
+                /** @description Start of the window (inclusive); default the first sample */
+                from?: number | string;
+                /** @description End of the window (inclusive); default the last sample */
+                to?: number | string;
+                format?: "csv" | "json";
+                /** @description `raw`: readings as sent (float32, the probe's unit); `amps`: converted through the probe */
+                values?: "raw" | "amps";
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The samples */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/csv": string;
+                    "application/json": string;
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    appendSamples: {
+        parameters: {
+            query?: {
+                /** @description Uniform data (binary, CSV without times): time of the first reading, epoch ms or ISO 8601. Default: right after the stored series, or the trace's startTime */
+                start?: string;
+                /** @description Uniform data: sample rate in Hz. Default: the trace's sampleRateHz */
+                rate?: number;
+                /** @description Binary bodies: little-endian float32 (default) or float64 */
+                valueType?: "float32" | "float64";
+                /** @description Format of the timestamps; default: detected from the first one */
+                timeFormat?: "epoch-ms" | "epoch-s" | "seconds" | "iso" | "d/m/y" | "m/d/y" | "y/m/d";
+                /** @description Offset of date-times written without one, e.g. +01:00; default UTC */
+                utcOffset?: string;
+                /** @description CSV: field separator; default detected from the header */
+                delimiter?: "comma" | "semicolon" | "tab" | "pipe" | "," | ";" | "\t" | "|";
+                /** @description CSV: decimal mark; default detected */
+                decimal?: "." | "," | "point" | "comma";
+                /** @description CSV: header name or 1-based position of the time column */
+                timeColumn?: string;
+                /** @description CSV: the date column, when date and time are separate */
+                dateColumn?: string;
+                /** @description CSV: header name or 1-based position of the readings */
+                valueColumn?: string;
+                /** @description CSV: unit of the readings; default from the header, else the probe's */
+                unit?: "A" | "mA" | "mV";
+                /** @description CSV: comma-separated markers of a missing reading (the row is skipped), e.g. `?` */
+                missing?: string;
+            };
+            header?: {
+                /** @description A retry with the same key returns the first answer and stores nothing twice */
+                "idempotency-key"?: string;
+                /** @description Same as the rate query parameter */
+                "sample-rate"?: number;
+                /** @description Same as the start query parameter */
+                "sample-start"?: string;
+                /** @description Same as the valueType query parameter */
+                "sample-value-type"?: "float32" | "float64";
+            };
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        /** @description A batch of samples. Large bodies are read as a stream. Every batch is all-or-nothing and must come after the samples already stored. */
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SampleBatch"];
+                "application/x-ndjson": string;
+                "text/csv": string;
+                "application/octet-stream": string;
+            };
+        };
+        responses: {
+            /** @description What was stored */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AppendResult"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    closeTrace: {
+        parameters: {
+            query?: never;
+            header?: {
+                /** @description A retry with the same key returns the first answer and does the work once */
+                "idempotency-key"?: string;
+            };
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The closed trace and its analysis */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TraceClosed"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getTraceStats: {
+        parameters: {
+            query?: {
+                /** @description Start of the window (inclusive); default the first sample */
+                from?: number | string;
+                /** @description End of the window (inclusive); default the last sample */
+                to?: number | string;
+                /** @description Exact p50/p95/p99 from the window's samples (slower on long windows) */
+                percentiles?: "true" | "false";
+                /** @description Current above which the load counts as on, for the duty cycle (reads the samples) */
+                onThresholdA?: number | null;
+                /** @description For the energy figure; default 1 */
+                powerFactor?: number;
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Statistics in amperes */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TraceStats"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getTraceSeries: {
+        parameters: {
+            query?: {
+                /** @description Start of the window (inclusive); default the first sample */
+                from?: number | string;
+                /** @description End of the window (inclusive); default the last sample */
+                to?: number | string;
+                /** @description Most buckets returned */
+                points?: number;
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Buckets as columns */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TraceSeries"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+        };
+    };
+    getTraceEvents: {
+        parameters: {
+            query?: {
+                /** @description Fixed on-threshold (A); null or absent: derived from the trace */
+                onThresholdA?: number | null;
+                /** @description Absolute floor of the on-threshold above the baseline (A); default 0.5 */
+                onFloorA?: number | null;
+                /** @description Share of the running level above baseline at which the load counts as on; default 0.25 */
+                onFraction?: number;
+                /** @description Hysteresis below the on-threshold, as a share; default 0.5 */
+                hysteresisFraction?: number | null;
+                /** @description Window after the switch-on in which the peak is sought (s); default 10 */
+                maxInrushS?: number;
+                /** @description Settling band as a fraction of the steady current; default 0.1 */
+                settleTolerance?: number;
+                /** @description Time the current must stay in the band (s); default 0.5 */
+                settleHoldS?: number | null;
+                /** @description Cycles after the switch-on searched for the instantaneous peak (waveforms); default 2 */
+                firstCycles?: number;
+                /** @description Surge: excursion above running as a fraction of it; default 0.25 */
+                surgeThresholdFraction?: number;
+                /** @description Surge: absolute floor of the excursion (A); default 1 */
+                surgeFloorA?: number | null;
+                /** @description Shortest surge reported (s); default 0.02 */
+                surgeMinDurationS?: number | null;
+                mainsFrequencyHz?: number;
+            };
+            header?: never;
+            path: {
+                /** @description Identifier */
+                traceId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Events (times epoch ms) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TraceEvents"];
                 };
             };
             /** @description Invalid request (validation or malformed body) */

@@ -1,0 +1,19 @@
+/**
+ * One operation at a time per trace, in arrival order: appends, close and delete of the same trace
+ * never interleave inside this process (the database's conditional commit guards against anything
+ * else; see storage/chunk-store.ts).
+ */
+export class KeyedQueue {
+  private readonly tails = new Map<string, Promise<unknown>>();
+
+  run<T>(key: string, work: () => Promise<T>): Promise<T> {
+    const previous = this.tails.get(key) ?? Promise.resolve();
+    const next = previous.then(work, work);
+    const tail = next.catch(() => undefined);
+    this.tails.set(key, tail);
+    void tail.then(() => {
+      if (this.tails.get(key) === tail) this.tails.delete(key);
+    });
+    return next;
+  }
+}

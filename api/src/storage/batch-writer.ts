@@ -1,0 +1,373 @@
+/**
+ * Writes one batch of samples into a trace's chunks: parsers push runs of samples as they stream in;
+ * the writer cuts them into chunks of CHUNK_SAMPLES, summarises each chunk with the analysis engine's
+ * mergeable summary, writes full groups of chunks as pending while the body is still arriving, and
+ * makes the whole batch visible in one final transaction (see chunk-store.ts).
+ *
+ * Chunks stay full: when the trace's last chunk is not full and the batch continues it in the same
+ * encoding (explicit times after explicit times, or the same uniform run), the batch first tops it
+ * up; the rewritten chunk replaces the old one in the final transaction. So a device posting one
+ * reading a second still fills 4,096-sample chunks.
+ */
+import { mergeSummaries, mergeSummaryList } from '../analysis/stats/merge-summaries.js';
+import { summarise, type SampleSummary } from '../analysis/stats/sample-summary.js';
+import { explicitTimeAxis, uniformTimeAxis, type TimeAxis } from '../analysis/time/time-axis.js';
+import { DEFAULT_GAP_FACTOR, gapThresholdFromSpacing, typicalSpacingS } from '../analysis/time/typical-spacing.js';
+import { Problem } from '../errors/problem.js';
+import {
+  CHUNK_SAMPLES,
+  decodeSamples,
+  decodeTimes,
+  encodeEnvelope,
+  encodeSamples,
+  encodeTimes,
+} from './chunk-codec.js';
+import type { ChunkStore, IdempotencyRecord, StoredChunk, TraceStorageState } from './chunk-store.js';
+import { summaryColumns, withGapThreshold, type ChunkSummaryRow } from './summary-rows.js';
+
+/** Samples buffered before pending chunks are written (4 MB of float32). */
+export const DEFAULT_FLUSH_SAMPLES = 1 << 20;
+
+/** A uniform batch that starts within this distance (µs) of the stored run's next sample continues it. */
+const RUN_CONTINUATION_TOLERANCE_US = 1;
+
+export interface BatchWriterOptions {
+  traceId: string;
+  organisationId: string;
+  store: ChunkStore;
+  /** The trace's storage state as committed when the batch started. */
+  state: TraceStorageState;
+  /** The trace's last committed chunk (its summary row), when it has one. */
+  lastChunk: ChunkSummaryRow | null;
+  /** Gap threshold (s) to use when the trace has none yet: 2.5 / sample rate when the trace states one. */
+  defaultGapThresholdS: number | null;
+  flushSamples?: number;
+}
+
+/** What a committed batch added. */
+export interface BatchResult {
+  accepted: number;
+  firstUs: number;
+  lastUs: number;
+  state: TraceStorageState;
+}
+
+/** Where a pushed run of samples sits in time. */
+export type UniformStart = { startUs: number } | 'continue';
+
+/** The chunk being filled. */
+interface OpenChunk {
+  seq: number;
+  /** True when it replaces the trace's last committed chunk. */
+  replaces: boolean;
+  encoding: 'uniform' | 'explicit';
+  values: Float32Array;
+  timesUs: Float64Array | null;
+  count: number;
+  /** Samples that were already stored (top-up); they are not new. */
+  oldCount: number;
+  runStartUs: number;
+  runOffset: number;
+  rateHz: number;
+}
+
+/** The uniform run the next pushed samples may continue. */
+interface Run {
+  startUs: number;
+  rateHz: number;
+  /** Index in the run of the next sample. */
+  nextIndex: number;
+}
+
+function timeOfRunIndex(run: { startUs: number; rateHz: number }, index: number): number {
+  return run.startUs + (index * 1e6) / run.rateHz;
+}
+
+export class BatchWriter {
+  private readonly flushSamples: number;
+  private readonly state: TraceStorageState;
+  private open: OpenChunk | null = null;
+  private nextSeq: number;
+  private readonly pending: StoredChunk[] = [];
+  private pendingSamples = 0;
+  private wrotePending = false;
+  private replacement: StoredChunk | null = null;
+  private readonly newPartSummaries: SampleSummary[] = [];
+  private run: Run | null;
+  private lastUs: number | null;
+  private firstNewUs: number | null = null;
+  private accepted = 0;
+  private originUs: number | null;
+  private gapThresholdS: number | null;
+  private started = false;
+  private lastExplicit: boolean;
+  private readonly scratchTimesS = new Float64Array(CHUNK_SAMPLES);
+
+  constructor(private readonly options: BatchWriterOptions) {
+    this.flushSamples = options.flushSamples ?? DEFAULT_FLUSH_SAMPLES;
+    this.state = options.state;
+    this.nextSeq = options.state.chunkCount;
+    this.lastUs = options.state.lastSampleUs;
+    this.originUs = options.state.originUs;
+    this.gapThresholdS = options.state.gapThresholdS ?? (options.state.sampleCount > 1 ? null : options.defaultGapThresholdS);
+    const last = options.lastChunk;
+    this.lastExplicit = last?.encoding === 'explicit';
+    this.run =
+      last && last.encoding === 'uniform' && last.runStartUs !== null && last.rateHz !== null && last.runOffset !== null
+        ? { startUs: last.runStartUs, rateHz: last.rateHz, nextIndex: last.runOffset + last.count }
+        : null;
+  }
+
+  /** Samples accepted so far. */
+  get count(): number {
+    return this.accepted;
+  }
+
+  /**
+   * Appends samples at uniform times: a new run from `startUs` at `rateHz`, or the continuation of the
+   * current run ('continue'). `values` may be reused by the caller afterwards.
+   */
+  async pushUniform(values: Float32Array, start: UniformStart, rateHz: number): Promise<void> {
+    if (values.length === 0) return;
+    const run = this.resolveRun(start, rateHz);
+    const firstUs = timeOfRunIndex(run, run.nextIndex);
+    await this.begin(firstUs, 'uniform', run);
+    let i = 0;
+    while (i < values.length) {
+      const chunk = await this.chunkFor('uniform', run);
+      const take = Math.min(values.length - i, CHUNK_SAMPLES - chunk.count);
+      chunk.values.set(values.subarray(i, i + take), chunk.count);
+      chunk.count += take;
+      run.nextIndex += take;
+      i += take;
+    }
+    this.accepted += values.length;
+    this.lastUs = timeOfRunIndex(run, run.nextIndex - 1);
+    this.run = run;
+    this.lastExplicit = false;
+  }
+
+  /** Appends samples at explicit, strictly increasing integer-microsecond times. */
+  async pushExplicit(values: Float32Array, timesUs: Float64Array): Promise<void> {
+    if (values.length !== timesUs.length) throw new RangeError('values and times differ in length');
+    if (values.length === 0) return;
+    await this.begin(timesUs[0] as number, 'explicit', null);
+    let i = 0;
+    while (i < values.length) {
+      const chunk = await this.chunkFor('explicit', null);
+      const take = Math.min(values.length - i, CHUNK_SAMPLES - chunk.count);
+      chunk.values.set(values.subarray(i, i + take), chunk.count);
+      (chunk.timesUs as Float64Array).set(timesUs.subarray(i, i + take), chunk.count);
+      chunk.count += take;
+      i += take;
+    }
+    this.accepted += values.length;
+    this.lastUs = timesUs[timesUs.length - 1] as number;
+    this.run = null;
+    this.lastExplicit = true;
+  }
+
+  private resolveRun(start: UniformStart, rateHz: number): Run {
+    const continuing = this.run !== null && this.run.rateHz === rateHz;
+    if (start === 'continue') {
+      if (!continuing) {
+        throw new Problem('validation', 'There is no uniform series at this sample rate to continue: give the start time of the samples', {
+          errors: [{ detail: 'required when the trace has no uniform series at this rate to continue', parameter: 'start' }],
+        });
+      }
+      return { ...(this.run as Run) };
+    }
+    if (continuing) {
+      const run = this.run as Run;
+      if (Math.abs(timeOfRunIndex(run, run.nextIndex) - start.startUs) <= RUN_CONTINUATION_TOLERANCE_US) return { ...run };
+    }
+    return { startUs: start.startUs, rateHz, nextIndex: 0 };
+  }
+
+  /** Checks the order of the batch's samples; on the first push, sets the origin and may load the last chunk to top it up. */
+  private async begin(firstUs: number, encoding: 'uniform' | 'explicit', run: Run | null): Promise<void> {
+    if (this.lastUs !== null && !(firstUs > this.lastUs)) this.throwOverlap(firstUs);
+    if (this.firstNewUs === null) this.firstNewUs = firstUs;
+    this.originUs ??= firstUs;
+    if (this.started) return;
+    this.started = true;
+    const last = this.options.lastChunk;
+    if (!last || last.count >= CHUNK_SAMPLES || last.encoding !== encoding) return;
+    if (encoding === 'uniform' && !(run && run.nextIndex === (last.runOffset ?? -1) + last.count && run.startUs === last.runStartUs)) return;
+    if (encoding === 'explicit' && !this.lastExplicit) return;
+    const [data] = await this.options.store.readData(this.options.traceId, last.seq, last.seq);
+    if (!data) return;
+    const chunk = this.newChunk(encoding, run, last.seq, true);
+    decodeSamples(data.samples, chunk.values);
+    if (chunk.timesUs) decodeTimes(data.times ?? Buffer.alloc(0), last.firstUs, last.count, chunk.timesUs);
+    if (encoding === 'uniform') chunk.runOffset = last.runOffset ?? 0;
+    chunk.count = last.count;
+    chunk.oldCount = last.count;
+    this.open = chunk;
+  }
+
+  private throwOverlap(firstUs: number): never {
+    const storedFirst = this.state.firstSampleUs;
+    const storedLast = this.lastUs as number;
+    const ms = (us: number) => us / 1000;
+    const iso = (us: number) => new Date(Math.floor(us / 1000)).toISOString();
+    const fromUs = storedFirst !== null ? Math.max(firstUs, storedFirst) : firstUs;
+    throw new Problem(
+      'conflict',
+      `The batch starts at ${iso(firstUs)}, not after the last stored sample at ${iso(storedLast)}: samples already stored from ` +
+        `${iso(fromUs)} to ${iso(storedLast)} overlap it. Batches must follow each other in time; nothing was stored.`,
+      { extensions: { overlap: { fromMs: ms(fromUs), toMs: ms(storedLast) }, lastStoredMs: ms(storedLast), batchStartMs: ms(firstUs) } },
+    );
+  }
+
+  private newChunk(encoding: 'uniform' | 'explicit', run: Run | null, seq: number, replaces: boolean): OpenChunk {
+    return {
+      seq,
+      replaces,
+      encoding,
+      values: new Float32Array(CHUNK_SAMPLES),
+      timesUs: encoding === 'explicit' ? new Float64Array(CHUNK_SAMPLES) : null,
+      count: 0,
+      oldCount: 0,
+      runStartUs: run?.startUs ?? 0,
+      runOffset: run?.nextIndex ?? 0,
+      rateHz: run?.rateHz ?? 0,
+    };
+  }
+
+  /** The chunk the next samples go into: the open one if it fits, else a fresh one (closing the old). */
+  private async chunkFor(encoding: 'uniform' | 'explicit', run: Run | null): Promise<OpenChunk> {
+    const open = this.open;
+    const fits =
+      open !== null &&
+      open.count < CHUNK_SAMPLES &&
+      open.encoding === encoding &&
+      (encoding === 'explicit' || (run !== null && open.runStartUs === run.startUs && open.rateHz === run.rateHz && open.runOffset + open.count === run.nextIndex));
+    if (fits) return open;
+    if (open) await this.close(open);
+    const chunk = this.newChunk(encoding, run, this.nextSeq++, false);
+    this.open = chunk;
+    return chunk;
+  }
+
+  private axisOf(chunk: OpenChunk): TimeAxis {
+    const origin = this.originUs as number;
+    if (chunk.encoding === 'uniform') {
+      return uniformTimeAxis((chunk.runStartUs - origin) / 1e6 + chunk.runOffset / chunk.rateHz, chunk.rateHz);
+    }
+    const times = chunk.timesUs as Float64Array;
+    const timesS = chunk.count === CHUNK_SAMPLES ? this.scratchTimesS : new Float64Array(chunk.count);
+    for (let i = 0; i < chunk.count; i++) timesS[i] = ((times[i] as number) - origin) / 1e6;
+    return explicitTimeAxis(timesS);
+  }
+
+  /** Summarises and encodes a finished chunk; queues it, flushing pending chunks when enough have gathered. */
+  private async close(chunk: OpenChunk): Promise<void> {
+    this.open = null;
+    const stored = this.encode(chunk);
+    if (chunk.replaces) {
+      this.replacement = stored;
+      return;
+    }
+    this.pending.push(stored);
+    this.pendingSamples += chunk.count;
+    if (this.pendingSamples >= this.flushSamples) {
+      const group = this.pending.splice(0, this.pending.length);
+      this.pendingSamples = 0;
+      this.wrotePending = true;
+      await this.options.store.insertPending(this.options.traceId, this.options.organisationId, group);
+    }
+  }
+
+  private encode(chunk: OpenChunk): StoredChunk {
+    const axis = this.axisOf(chunk);
+    if (this.gapThresholdS === null && chunk.count > 1) {
+      // The trace's spacing is known from its first chunk with two samples; it fixes the gap threshold for good.
+      this.gapThresholdS = gapThresholdFromSpacing(typicalSpacingS(axis, 0, chunk.count), DEFAULT_GAP_FACTOR);
+    }
+    const options = { gapThresholdS: this.gapThresholdS };
+    const values = chunk.values.subarray(0, chunk.count);
+    const whole = summarise(axis, values, 0, chunk.count, options);
+    this.newPartSummaries.push(chunk.oldCount === 0 ? whole : summarise(axis, values, chunk.oldCount, chunk.count, options));
+    const uniform = chunk.encoding === 'uniform';
+    const firstUs = uniform ? timeOfRunIndex({ startUs: chunk.runStartUs, rateHz: chunk.rateHz }, chunk.runOffset) : (chunk.timesUs![0] as number);
+    const lastUs = uniform
+      ? timeOfRunIndex({ startUs: chunk.runStartUs, rateHz: chunk.rateHz }, chunk.runOffset + chunk.count - 1)
+      : (chunk.timesUs![chunk.count - 1] as number);
+    return {
+      row: {
+        seq: chunk.seq,
+        encoding: chunk.encoding,
+        firstUs,
+        lastUs,
+        runStartUs: uniform ? chunk.runStartUs : null,
+        runOffset: uniform ? chunk.runOffset : null,
+        rateHz: uniform ? chunk.rateHz : null,
+        ...summaryColumns(whole),
+      },
+      envelope: encodeEnvelope(chunk.values, 0, chunk.count),
+      times: uniform ? null : encodeTimes(chunk.timesUs!, 0, chunk.count),
+      samples: encodeSamples(chunk.values, 0, chunk.count),
+    };
+  }
+
+  /**
+   * Makes the batch visible in one transaction; returns what it added. `record` makes the
+   * idempotency record (the answer to store) from that result, written in the same transaction.
+   */
+  async finish(record: (result: BatchResult) => IdempotencyRecord | null = () => null): Promise<BatchResult> {
+    if (this.open) await this.close(this.open);
+    const before = this.state;
+    if (this.accepted === 0) {
+      throw new Problem('validation', 'The batch holds no samples', { errors: [{ detail: 'no samples', pointer: '' }] });
+    }
+    if (this.gapThresholdS === null && before.sampleCount + this.accepted > 1) this.gapThresholdS = this.thresholdFromSingleSamples();
+    const threshold = this.gapThresholdS;
+    const added = mergeSummaryList(this.newPartSummaries.map((s) => withGapThreshold(s, threshold)));
+    const summary = before.summary ? mergeSummaries(withGapThreshold(before.summary, threshold), added) : added;
+    const state: TraceStorageState = {
+      sampleCount: before.sampleCount + this.accepted,
+      chunkCount: this.nextSeq,
+      originUs: this.originUs,
+      firstSampleUs: before.firstSampleUs ?? this.firstNewUs,
+      lastSampleUs: this.lastUs,
+      gapThresholdS: this.gapThresholdS,
+      summary,
+    };
+    const result: BatchResult = { accepted: this.accepted, firstUs: this.firstNewUs as number, lastUs: this.lastUs as number, state };
+    const committed = await this.options.store.commit({
+      traceId: this.options.traceId,
+      organisationId: this.options.organisationId,
+      expectedChunkCount: before.chunkCount,
+      replaceLast: this.replacement,
+      chunks: this.pending.splice(0, this.pending.length),
+      state,
+      idempotency: record(result),
+    });
+    if (!committed) {
+      await this.abort();
+      throw new Problem('conflict', 'The trace was closed, deleted or changed by another batch while this one was stored; nothing was stored');
+    }
+    return result;
+  }
+
+  /**
+   * Gap threshold when every chunk so far holds one sample (single readings sent as separate uniform
+   * batches): gapFactor × the shortest step between those samples.
+   */
+  private thresholdFromSingleSamples(): number | null {
+    const times = this.newPartSummaries.map((s) => s.firstTimeS);
+    if (this.state.summary) times.unshift(this.state.summary.lastTimeS);
+    let spacing = Number.POSITIVE_INFINITY;
+    for (let k = 1; k < times.length; k++) spacing = Math.min(spacing, (times[k] as number) - (times[k - 1] as number));
+    return spacing > 0 && Number.isFinite(spacing) ? gapThresholdFromSpacing(spacing, DEFAULT_GAP_FACTOR) : null;
+  }
+
+  /** Deletes the pending chunks this batch wrote (call when the batch fails). */
+  async abort(): Promise<void> {
+    if (this.wrotePending) {
+      this.wrotePending = false;
+      await this.options.store.discardPending(this.options.traceId, this.state.chunkCount);
+    }
+  }
+}

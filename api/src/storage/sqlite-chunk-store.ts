@@ -1,0 +1,200 @@
+/**
+ * Chunk store on SQLite through the raw sqlite3 connections of Sequelize's connection manager.
+ *
+ * Why not the models: every statement through the sqlite3 package is a round trip to its worker
+ * thread, and a Sequelize transaction on a file database opens a fresh connection (~2.5 ms), which
+ * caps ingest far below the product's targets (bench/ingest.bench.ts). So, on a file database:
+ * - writes go through one dedicated connection (`headroom-chunk-writer`), one transaction at a time
+ *   (a promise queue), BEGIN IMMEDIATE … COMMIT, with multi-row INSERTs bound as parameters;
+ * - reads go through another (`headroom-chunk-reader`), which in WAL mode sees only committed data.
+ * Both get the same pragmas as every connection (db/open.ts). Nothing inside a write transaction waits
+ * for a Sequelize query, so the two can never wait for each other's lock.
+ *
+ * An in-memory database has a single connection; there, writes run inside `sequelize.transaction()` so
+ * they take part in Sequelize's own bookkeeping (used by tests).
+ */
+import type { Database as SqliteDatabase } from 'sqlite3';
+import type { Sequelize } from 'sequelize';
+import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, IdempotencyRecord, StoredChunk } from './chunk-store.js';
+import { SUMMARY_COLUMNS, type ChunkSummaryRow } from './summary-rows.js';
+
+type Param = string | number | null | Buffer;
+
+const SUMMARY_INSERT_COLUMNS = ['traceId', 'seq', 'organisationId', ...SUMMARY_COLUMNS];
+const DATA_INSERT_COLUMNS = ['traceId', 'seq', 'envelope', 'times', 'samples'];
+/** Rows per multi-row INSERT (27 parameters per summary row stays far below SQLite's 32,766). */
+const ROWS_PER_INSERT = 64;
+
+function quoted(names: readonly string[]): string {
+  return names.map((n) => `"${n}"`).join(', ');
+}
+
+function insertSql(table: string, columns: readonly string[], rows: number): string {
+  const tuple = `(${columns.map(() => '?').join(', ')})`;
+  return `INSERT INTO ${table} (${quoted(columns)}) VALUES ${Array.from({ length: rows }, () => tuple).join(', ')}`;
+}
+
+/** Sequelize's SQLite date format, so rows written here read back like rows written by the models. */
+export function sqliteDate(date: Date): string {
+  return date.toISOString().replace('T', ' ').replace('Z', ' +00:00');
+}
+
+function run(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<number> {
+  return new Promise((resolve, reject) => {
+    conn.run(sql, params, function (this: { changes: number }, err: Error | null) {
+      if (err) reject(err);
+      else resolve(this.changes);
+    });
+  });
+}
+
+function all<T>(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<T[]> {
+  return new Promise((resolve, reject) => {
+    conn.all(sql, params, (err: Error | null, rows: T[]) => (err ? reject(err) : resolve(rows)));
+  });
+}
+
+interface ConnectionManager {
+  getConnection(options?: { uuid?: string }): Promise<SqliteDatabase>;
+}
+
+export class SqliteChunkStore implements ChunkStore {
+  private readonly inMemory: boolean;
+  private readonly manager: ConnectionManager;
+  /** Tail of the queue of write transactions on the writer connection. */
+  private writeQueue: Promise<unknown> = Promise.resolve();
+  private readonly sqlCache = new Map<string, string>();
+
+  constructor(private readonly sequelize: Sequelize) {
+    this.inMemory = (sequelize as unknown as { options: { storage?: string } }).options.storage === ':memory:';
+    this.manager = sequelize.connectionManager as unknown as ConnectionManager;
+  }
+
+  private reader(): Promise<SqliteDatabase> {
+    return this.manager.getConnection({ uuid: 'headroom-chunk-reader' });
+  }
+
+  /** Runs `work` in one write transaction, after every earlier one has finished. */
+  private write<T>(work: (conn: SqliteDatabase) => Promise<T>): Promise<T> {
+    const next = this.writeQueue.then(async () => {
+      if (this.inMemory) {
+        return this.sequelize.transaction(async (transaction) => work((transaction as unknown as { connection: SqliteDatabase }).connection));
+      }
+      const conn = await this.manager.getConnection({ uuid: 'headroom-chunk-writer' });
+      await run(conn, 'BEGIN IMMEDIATE');
+      try {
+        const result = await work(conn);
+        await run(conn, 'COMMIT');
+        return result;
+      } catch (err) {
+        await run(conn, 'ROLLBACK').catch(() => undefined);
+        throw err;
+      }
+    });
+    this.writeQueue = next.catch(() => undefined);
+    return next;
+  }
+
+  private cachedInsertSql(table: string, columns: readonly string[], rows: number): string {
+    const key = `${table}:${rows}`;
+    let sql = this.sqlCache.get(key);
+    if (!sql) {
+      sql = insertSql(table, columns, rows);
+      this.sqlCache.set(key, sql);
+    }
+    return sql;
+  }
+
+  private async insertChunks(conn: SqliteDatabase, traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
+    for (let start = 0; start < chunks.length; start += ROWS_PER_INSERT) {
+      const group = chunks.slice(start, start + ROWS_PER_INSERT);
+      const summaryParams: Param[] = [];
+      const dataParams: Param[] = [];
+      for (const c of group) {
+        summaryParams.push(traceId, c.row.seq, organisationId);
+        for (const column of SUMMARY_COLUMNS) summaryParams.push(c.row[column]);
+        dataParams.push(traceId, c.row.seq, c.envelope, c.times, c.samples);
+      }
+      await run(conn, this.cachedInsertSql('trace_chunks', SUMMARY_INSERT_COLUMNS, group.length), summaryParams);
+      await run(conn, this.cachedInsertSql('trace_chunk_data', DATA_INSERT_COLUMNS, group.length), dataParams);
+    }
+  }
+
+  async insertPending(traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
+    if (chunks.length === 0) return;
+    await this.write((conn) => this.insertChunks(conn, traceId, organisationId, chunks));
+  }
+
+  commit(batch: BatchCommit): Promise<boolean> {
+    return this.write(async (conn) => {
+      const s = batch.state;
+      const changed = await run(
+        conn,
+        `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
+           "gapThresholdS" = ?, "summary" = ?, "updatedAt" = ?
+         WHERE "id" = ? AND "organisationId" = ? AND "status" = 'open' AND "chunkCount" = ?`,
+        [
+          s.sampleCount, s.chunkCount, s.originUs, s.firstSampleUs, s.lastSampleUs, s.gapThresholdS,
+          s.summary === null ? null : JSON.stringify(s.summary), sqliteDate(new Date()),
+          batch.traceId, batch.organisationId, batch.expectedChunkCount,
+        ],
+      );
+      if (changed !== 1) return false;
+      if (batch.replaceLast) {
+        const c = batch.replaceLast;
+        await run(
+          conn,
+          `UPDATE trace_chunks SET ${SUMMARY_COLUMNS.map((n) => `"${n}" = ?`).join(', ')} WHERE "traceId" = ? AND "seq" = ?`,
+          [...SUMMARY_COLUMNS.map((n) => c.row[n]), batch.traceId, c.row.seq],
+        );
+        await run(conn, 'UPDATE trace_chunk_data SET "envelope" = ?, "times" = ?, "samples" = ? WHERE "traceId" = ? AND "seq" = ?', [
+          c.envelope, c.times, c.samples, batch.traceId, c.row.seq,
+        ]);
+      }
+      await this.insertChunks(conn, batch.traceId, batch.organisationId, batch.chunks);
+      if (batch.idempotency) await insertIdempotency(conn, batch.idempotency);
+      return true;
+    });
+  }
+
+  async discardPending(traceId: string, fromSeq: number): Promise<void> {
+    await this.write(async (conn) => {
+      await run(conn, 'DELETE FROM trace_chunk_data WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]);
+      await run(conn, 'DELETE FROM trace_chunks WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]);
+    });
+  }
+
+  async readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number): Promise<ChunkSummaryRow[]> {
+    return all<ChunkSummaryRow>(
+      await this.reader(),
+      `SELECT "seq", ${quoted(SUMMARY_COLUMNS)} FROM trace_chunks
+       WHERE "traceId" = ? AND "seq" < ? AND "lastUs" >= ? AND "firstUs" <= ? ORDER BY "seq"`,
+      [traceId, chunkCount, fromUs, toUs],
+    );
+  }
+
+  async readData(traceId: string, fromSeq: number, toSeq: number): Promise<ChunkData[]> {
+    return all<ChunkData>(
+      await this.reader(),
+      'SELECT "seq", "samples", "times" FROM trace_chunk_data WHERE "traceId" = ? AND "seq" >= ? AND "seq" <= ? ORDER BY "seq"',
+      [traceId, fromSeq, toSeq],
+    );
+  }
+
+  async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
+    return all(
+      await this.reader(),
+      `SELECT "seq", "envelope", ${withTimes ? '"times"' : 'NULL AS "times"'} FROM trace_chunk_data
+       WHERE "traceId" = ? AND "seq" >= ? AND "seq" <= ? ORDER BY "seq"`,
+      [traceId, fromSeq, toSeq],
+    );
+  }
+}
+
+async function insertIdempotency(conn: SqliteDatabase, r: IdempotencyRecord): Promise<void> {
+  await run(
+    conn,
+    'INSERT INTO idempotency_keys ("organisationId", "key", "operation", "fingerprint", "status", "response", "createdAt") VALUES (?, ?, ?, ?, ?, ?, ?)',
+    [r.organisationId, r.key, r.operation, r.fingerprint, r.status, r.response, sqliteDate(new Date())],
+  );
+}
