@@ -123,8 +123,9 @@ interface Accumulator {
   longestStart: number;
   longestEnd: number;
   timeAbove: Float64Array;
-  // The block being scanned (set by the fused passes, consumed by mergeBlockMoments).
+  // The block being scanned (set by valuesPass).
   blockSum: number;
+  blockSquares: number;
   blockMin: number;
   blockMinIndex: number;
   blockMax: number;
@@ -178,7 +179,7 @@ export function summarise(
     covered: 0, integral2x: 0, integral2x2: 0,
     gapCount: 0, gapTime: 0, longestStart: 0, longestEnd: 0,
     timeAbove: new Float64Array(thresholds.length),
-    blockSum: 0, blockMin: 0, blockMinIndex: 0, blockMax: 0, blockMaxIndex: 0,
+    blockSum: 0, blockSquares: 0, blockMin: 0, blockMinIndex: 0, blockMax: 0, blockMaxIndex: 0,
   };
   const dt = explicit === null ? 1 / (axis as { rateHz: number }).rateHz : 0;
   if (explicit === null && dt > gap) {
@@ -186,16 +187,7 @@ export function summarise(
     for (let i = from + 1; i < to; i++) recordGap(acc, timeAt(axis, i - 1), timeAt(axis, i), options);
   }
   const uniformIntegrates = explicit === null && dt <= gap;
-  const firstThreshold = thresholds.length > 0 ? (thresholds[0] as number) : Number.POSITIVE_INFINITY;
-  scanBlocks(acc, a, explicit, from, to, uniformIntegrates ? dt : 0, gap, firstThreshold, options);
-  // Further thresholds: one pass each (the first one rides along in the main pass).
-  for (let k = 1; k < thresholds.length; k++) {
-    const h = thresholds[k] as number;
-    const above = explicit !== null
-      ? timeAboveExplicit(a, explicit, from + 1, to, h, gap)
-      : uniformIntegrates ? timeAboveUniform(a, from + 1, to, h) * dt : 0;
-    acc.timeAbove[k] = above;
-  }
+  scanBlocks(acc, a, explicit, from, to, uniformIntegrates ? dt : 0, gap, thresholds, options);
   return {
     count: acc.count,
     meanA: acc.mean,
@@ -227,9 +219,12 @@ function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
 }
 
 /**
- * The main pass over samples [from, to), block by block: the fused pass (values, intervals, time
- * above the first threshold), the check for bad values, then the block's moments. Kept out of
- * `summarise` because V8 compiles these loops worse when they are inlined into a larger function.
+ * The scan over samples [from, to), block by block (each block stays in cache between its passes):
+ * a values pass (sum, sum of squares, min and max), the check for bad values, a second pass for the
+ * block's M2 (and, with explicit times, the trapezoid sums and gaps), the pairwise merge into the
+ * running moments, then one short pass per threshold. Hot loops are kept free of rare work, and
+ * the scan lives outside `summarise`: V8 compiles these loops markedly worse when they are
+ * inlined into a larger function or share a body with rarely taken branches.
  */
 function scanBlocks(
   acc: Accumulator,
@@ -239,196 +234,232 @@ function scanBlocks(
   to: number,
   dt: number,
   gap: number,
-  h0: number,
+  thresholds: readonly number[],
   options: SummariseOptions,
 ): void {
+  const firstThreshold = thresholds.length > 0 ? (thresholds[0] as number) : Number.NaN;
   for (let b0 = from; b0 < to; b0 += SUMMARY_BLOCK_SAMPLES) {
     const b1 = Math.min(to, b0 + SUMMARY_BLOCK_SAMPLES);
     // Intervals ending at samples i0 .. b1 - 1 (each joins a sample to the one before it).
     const i0 = b0 === from ? from + 1 : b0;
-    if (explicit !== null) fusedExplicitPass(acc, a, explicit, b0, i0, b1, gap, h0, options);
-    else fusedUniformPass(acc, a, b0, i0, b1, dt, h0);
+    valuesPass(acc, a, b0, b1);
     if (acc.blockSum !== acc.blockSum || acc.blockMin < -MAX_ABS_CURRENT_A || acc.blockMax > MAX_ABS_CURRENT_A) {
       // NaN poisons the sum; ±Infinity and out-of-range values show in the extremes.
       throwAtFirstBadValue(a, b0, b1, MAX_ABS_CURRENT_A, 'samples');
     }
-    mergeBlockMoments(acc, a, b0, b1);
+    const n = b1 - b0;
+    const blockMean = acc.blockSum / n;
+    let blockM2: number;
+    if (explicit !== null) {
+      blockM2 = explicitSecondPass(acc, a, explicit, b0, i0, b1, blockMean, gap, firstThreshold, options);
+    } else {
+      blockM2 = squaredDeviations(a, b0, b1, blockMean);
+      if (dt > 0) addUniformIntegrals(acc, a, b0, i0, b1, dt);
+    }
+    const total = acc.count + n;
+    const delta = blockMean - acc.mean;
+    acc.mean += (delta * n) / total;
+    acc.m2 += blockM2 + (delta * delta * acc.count * n) / total;
+    acc.count = total;
+    if (acc.blockMin < acc.min) {
+      acc.min = acc.blockMin;
+      acc.minIndex = acc.blockMinIndex;
+    }
+    if (acc.blockMax > acc.max) {
+      acc.max = acc.blockMax;
+      acc.maxIndex = acc.blockMaxIndex;
+    }
+    if (i0 < b1) {
+      // With explicit times the first threshold rides along in the second pass.
+      for (let k = explicit !== null ? 1 : 0; k < thresholds.length; k++) {
+        const h = thresholds[k] as number;
+        const above = explicit !== null ? timeAboveExplicit(a, explicit, i0, b1, h, gap) : dt > 0 ? timeAboveUniform(a, i0, b1, h) * dt : 0;
+        acc.timeAbove[k] = (acc.timeAbove[k] as number) + above;
+      }
+    }
   }
-}
-
-/** Block state before its fused pass: the block's first sample when no interval ends at it. */
-function startBlock(acc: Accumulator, a: SampleArray, b0: number, i0: number): void {
-  const first = i0 > b0 ? (a[b0] as number) : null;
-  acc.blockSum = first ?? 0;
-  acc.blockMin = first ?? Number.POSITIVE_INFINITY;
-  acc.blockMax = first ?? Number.NEGATIVE_INFINITY;
 }
 
 /**
- * One pass over a block with implicit, uniform times: sum, min and max of samples [b0, b1), and the
- * trapezoid sums and time above `h0` over the intervals ending at i0..b1-1 (i0 is b0 + 1 for the
- * range's first block). `dt` 0 means the intervals are gaps (already recorded) and not integrated.
+ * Sum, sum of squares, min and max (first occurrence) of a[b0, b1), two samples per step with
+ * separate accumulators (the loop is bound by add latency), into acc.block*.
  */
-function fusedUniformPass(acc: Accumulator, a: SampleArray, b0: number, i0: number, b1: number, dt: number, h0: number): void {
-  startBlock(acc, a, b0, i0);
-  let sum = acc.blockSum;
-  let lo = acc.blockMin;
-  let hi = acc.blockMax;
+function valuesPass(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
+  let sumEven = 0;
+  let sumOdd = 0;
+  let squaresEven = 0;
+  let squaresOdd = 0;
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
   let loIndex = b0;
   let hiIndex = b0;
-  let sumSquares = 0;
-  let above = 0;
-  let previous = a[i0 - 1] as number;
-  for (let i = i0; i < b1; i++) {
+  const end2 = b0 + ((b1 - b0) & ~1);
+  for (let i = b0; i < end2; i += 2) {
     const v = a[i] as number;
-    sum += v;
-    sumSquares += v * v;
+    const w = a[i + 1] as number;
+    sumEven += v;
+    sumOdd += w;
+    squaresEven += v * v;
+    squaresOdd += w * w;
+    if (v < lo || w < lo) {
+      if (v <= w) {
+        lo = v;
+        loIndex = i;
+      } else {
+        lo = w;
+        loIndex = i + 1;
+      }
+    }
+    if (v > hi || w > hi) {
+      if (v >= w) {
+        hi = v;
+        hiIndex = i;
+      } else {
+        hi = w;
+        hiIndex = i + 1;
+      }
+    }
+  }
+  if (end2 < b1) {
+    const v = a[end2] as number;
+    sumEven += v;
+    squaresEven += v * v;
     if (v < lo) {
       lo = v;
-      loIndex = i;
+      loIndex = end2;
     }
     if (v > hi) {
       hi = v;
-      hiIndex = i;
+      hiIndex = end2;
     }
-    if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, 1, h0);
-    previous = v;
   }
-  acc.blockSum = sum;
+  acc.blockSum = sumEven + sumOdd;
+  acc.blockSquares = squaresEven + squaresOdd;
   acc.blockMin = lo;
   acc.blockMinIndex = loIndex;
   acc.blockMax = hi;
   acc.blockMaxIndex = hiIndex;
-  if (dt > 0) {
-    // With equal spacing the trapezoid sums follow from plain sums: Σ (a[i−1] + a[i]) over the
-    // intervals ending at i0..b1−1 counts every sample twice except a[i0−1] and a[b1−1] once.
-    const before = a[i0 - 1] as number;
-    const last = a[b1 - 1] as number;
-    const valuesFromI0 = i0 > b0 ? sum - (a[b0] as number) : sum;
-    const squaresFromI0 = sumSquares;
-    acc.integral2x += (2 * valuesFromI0 + before - last) * dt;
-    acc.integral2x2 += (2 * squaresFromI0 + before * before - last * last) * dt;
-    acc.covered += (b1 - i0) * dt;
-    if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above * dt;
+}
+
+/** Σ (a[i] − mean)² over a[b0, b1): the block's M2 by the two-pass method. */
+function squaredDeviations(a: SampleArray, b0: number, b1: number, mean: number): number {
+  let m2 = 0;
+  for (let i = b0; i < b1; i++) {
+    const d = (a[i] as number) - mean;
+    m2 += d * d;
   }
+  return m2;
 }
 
 /**
- * The same pass with explicit times: intervals longer than `gap` are recorded as gaps and skipped;
- * a timestamp that is not finite or not increasing is a RangeError.
+ * Trapezoid sums over the uniform intervals ending at i0..b1-1, from the block's plain sums: each
+ * sample counts twice except a[i0 − 1] and a[b1 − 1], which count once.
  */
-function fusedExplicitPass(
+function addUniformIntegrals(acc: Accumulator, a: SampleArray, b0: number, i0: number, b1: number, dt: number): void {
+  const first = a[b0] as number;
+  const before = a[i0 - 1] as number;
+  const last = a[b1 - 1] as number;
+  const values = i0 > b0 ? acc.blockSum - first : acc.blockSum;
+  const squares = i0 > b0 ? acc.blockSquares - first * first : acc.blockSquares;
+  acc.integral2x += (2 * values + before - last) * dt;
+  acc.integral2x2 += (2 * squares + before * before - last * last) * dt;
+  acc.covered += (b1 - i0) * dt;
+}
+
+/**
+ * Second pass over a block with explicit times: its M2 (returned), and the trapezoid sums and the
+ * time above the first threshold `h0` (NaN: none) over the intervals ending at i0..b1-1. Intervals longer than `gap` are recorded as gaps and skipped; a
+ * timestamp that is not finite or not increasing is a RangeError.
+ */
+function explicitSecondPass(
   acc: Accumulator,
   a: SampleArray,
   t: Float64Array,
   b0: number,
   i0: number,
   b1: number,
+  mean: number,
   gap: number,
   h0: number,
   options: SummariseOptions,
-): void {
-  startBlock(acc, a, b0, i0);
-  let sum = acc.blockSum;
-  let lo = acc.blockMin;
-  let hi = acc.blockMax;
-  let loIndex = b0;
-  let hiIndex = b0;
+): number {
+  let m2 = 0;
+  let above = 0;
+  if (i0 > b0) {
+    const d = (a[b0] as number) - mean;
+    m2 = d * d;
+  }
   let previous = a[i0 - 1] as number;
+  let previousSquare = previous * previous;
   let previousT = t[i0 - 1] as number;
   let s1 = 0;
   let s2 = 0;
   let covered = 0;
-  let above = 0;
   for (let i = i0; i < b1; i++) {
     const v = a[i] as number;
+    const square = v * v;
+    const d = v - mean;
+    m2 += d * d;
     const ti = t[i] as number;
     const dt = ti - previousT;
-    sum += v;
-    if (v < lo) {
-      lo = v;
-      loIndex = i;
-    }
-    if (v > hi) {
-      hi = v;
-      hiIndex = i;
-    }
     if (dt > 0 && dt <= gap) {
       s1 += (v + previous) * dt;
-      s2 += (v * v + previous * previous) * dt;
+      s2 += (square + previousSquare) * dt;
       covered += dt;
-      if (v > h0 || previous > h0) above += timeAboveOnSegment(previous, v, dt, h0);
-    } else if (dt > gap) {
-      recordGap(acc, previousT, ti, options);
+      // h0 is NaN when there is no threshold: both comparisons are then false.
+      if (v > h0 || previous > h0) above += v > h0 && previous > h0 ? dt : timeAboveOnSegment(previous, v, dt, h0);
     } else {
-      throwTimestampError(t, i);
+      irregularInterval(acc, t, i, dt, gap, options);
     }
     previous = v;
+    previousSquare = square;
     previousT = ti;
   }
-  acc.blockSum = sum;
-  acc.blockMin = lo;
-  acc.blockMinIndex = loIndex;
-  acc.blockMax = hi;
-  acc.blockMaxIndex = hiIndex;
   acc.integral2x += s1;
   acc.integral2x2 += s2;
   acc.covered += covered;
   if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above;
+  return m2;
+}
+
+/** An interval that is not an ordinary one: a gap (recorded) or bad timestamps (RangeError). */
+function irregularInterval(acc: Accumulator, t: Float64Array, i: number, dt: number, gap: number, options: SummariseOptions): void {
+  if (dt > gap) recordGap(acc, t[i - 1] as number, t[i] as number, options);
+  else throwTimestampError(t, i);
 }
 
 /**
- * Merges the block [b0, b1) just scanned into the running moments: its M2 about its own mean by a
- * second pass over the (cache-resident) block, then Chan et al.'s pairwise update; min/max keep the
- * earliest extreme.
+ * Time above h (in units of the spacing) over uniform intervals ending at i0..i1-1. Intervals with
+ * both ends above count whole; only crossings need the interpolation of timeAboveOnSegment.
  */
-function mergeBlockMoments(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
-  const n = b1 - b0;
-  const blockMean = acc.blockSum / n;
-  let blockM2 = 0;
-  for (let i = b0; i < b1; i++) {
-    const d = (a[i] as number) - blockMean;
-    blockM2 += d * d;
-  }
-  const total = acc.count + n;
-  const delta = blockMean - acc.mean;
-  acc.mean += (delta * n) / total;
-  acc.m2 += blockM2 + (delta * delta * acc.count * n) / total;
-  acc.count = total;
-  if (acc.blockMin < acc.min) {
-    acc.min = acc.blockMin;
-    acc.minIndex = acc.blockMinIndex;
-  }
-  if (acc.blockMax > acc.max) {
-    acc.max = acc.blockMax;
-    acc.maxIndex = acc.blockMaxIndex;
-  }
-}
-
-/** Time above h (in units of the spacing) over uniform intervals ending at i0..i1-1. */
 function timeAboveUniform(a: SampleArray, i0: number, i1: number, h: number): number {
-  let above = 0;
+  let whole = 0;
+  let partial = 0;
   let p = a[i0 - 1] as number;
   for (let i = i0; i < i1; i++) {
     const v = a[i] as number;
-    if (v > h || p > h) above += timeAboveOnSegment(p, v, 1, h);
+    if (v > h) {
+      if (p > h) whole++;
+      else partial += timeAboveOnSegment(p, v, 1, h);
+    } else if (p > h) {
+      partial += timeAboveOnSegment(p, v, 1, h);
+    }
     p = v;
   }
-  return above;
+  return whole + partial;
 }
 
 /** Time above h (s) over explicit intervals ending at i0..i1-1, skipping intervals longer than gap. */
 function timeAboveExplicit(a: SampleArray, t: Float64Array, i0: number, i1: number, h: number, gap: number): number {
   let above = 0;
   let p = a[i0 - 1] as number;
-  let pt = t[i0 - 1] as number;
   for (let i = i0; i < i1; i++) {
     const v = a[i] as number;
-    const ti = t[i] as number;
-    const dt = ti - pt;
-    if ((v > h || p > h) && dt <= gap) above += timeAboveOnSegment(p, v, dt, h);
+    if (v > h || p > h) {
+      const dt = (t[i] as number) - (t[i - 1] as number);
+      if (dt <= gap) above += v > h && p > h ? dt : timeAboveOnSegment(p, v, dt, h);
+    }
     p = v;
-    pt = ti;
   }
   return above;
 }
