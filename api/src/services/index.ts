@@ -38,7 +38,7 @@ export function createServices(db: Db, config: Config, extras: ServiceExtras = {
   const loads = createLoadsService(db, circuits);
   const traces = createTracesService(db, config);
   const checks = createChecksService({ circuits, loads, traces });
-  const reports = createReportsService({ db, sites, circuits, checks });
+  const reports = createReportsService({ db, sites, circuits, checks, mailer });
   const analysis = createAnalysisService();
   return { db, mailer, mailbox, audit, sessions, apiKeys, users, accounts, sites, circuits, loads, checks, reports, analysis, traces };
 }

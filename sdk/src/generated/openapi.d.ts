@@ -450,6 +450,28 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/circuits/{circuitId}/report/email": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * E-mail the PDF report of a circuit to one address
+         * @description Sends the circuit report (PDF attached, the verdict, reasons and cautions in the text) through the e-mail set-up (SMTP_URL). 503 when mail is not configured or the mail server does not accept the message.
+         *
+         *     Permission `report`: roles admin, engineer; API-key scopes none.
+         */
+        post: operations["emailCircuitReport"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/analyze": {
         parameters: {
             query?: never;
@@ -1630,6 +1652,21 @@ export interface components {
              * @example 0.3
              */
             startDurationS?: number | null;
+        };
+        ReportEmailSent: {
+            to: string;
+            subject: string;
+            filename: string;
+            verdict: string;
+        };
+        ReportEmail: {
+            /**
+             * Format: email
+             * @example bookings@millbrook-hall.test
+             */
+            to: string;
+            /** @description A note placed above the summary in the e-mail */
+            message?: string;
         };
         AnalyzeResponse: {
             /** @enum {string} */
@@ -4596,6 +4633,101 @@ export interface operations {
                 content: {
                     "application/problem+json": components["schemas"]["ProblemDetails"];
                 };
+            };
+        };
+    };
+    emailCircuitReport: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Identifier */
+                circuitId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ReportEmail"];
+            };
+        };
+        responses: {
+            /** @description Sent: the address, subject, attachment name and verdict */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReportEmailSent"];
+                };
+            };
+            /** @description Invalid request (validation or malformed body) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not signed in, or the key is invalid, revoked or expired */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The role or key scope does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Not found in your organisation */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description The circuit as recorded cannot be judged */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Too many requests; see Retry-After */
+            429: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description Unexpected error */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["ProblemDetails"];
+                };
+            };
+            /** @description E-mail is not configured, or the mail server refused the message */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
         };
     };

@@ -107,6 +107,37 @@ describe('reports', () => {
     ]);
   });
 
+  it('when the report is e-mailed, then the fake mail server receives the PDF with the verdict and cautions in the text', async () => {
+    const res = await request(t.app)
+      .post(`/api/v1/circuits/${circuitId}/report/email`)
+      .set(await t.auth())
+      .send({ to: 'client@example.test', message: 'As discussed on site.' });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ to: 'client@example.test', verdict: 'over-the-limit' });
+    const mail = await t.mailbox!.waitFor((m) => m.to.includes('client@example.test'));
+    expect(mail.subject).toBe('Headroom report: Counter, left (K3) (Millpond Café) - Over the limit');
+    expect(mail.text).toContain('As discussed on site.');
+    expect(mail.text).toContain('Verdict: Over the limit');
+    expect(mail.text).toContain('NFPA 70 2023 210.23');
+    expect(mail.text).toContain('qualified persons');
+    expect(mail.organisationId).toBe(t.organisationId);
+    const [attachment] = mail.attachments;
+    expect(attachment).toMatchObject({ contentType: 'application/pdf', filename: res.body.filename });
+    expect((await pdfText(attachment!.content)).text).toContain('Verdict: Over the limit');
+  });
+
+  it('when a viewer or a read key e-mails a report, then 403; a bad address is a 400 on /to; another organisation\'s circuit is 404', async () => {
+    const url = `/api/v1/circuits/${circuitId}/report/email`;
+    const before = t.mailbox!.messages().length;
+    expect((await request(t.app).post(url).set(await t.auth('viewer')).send({ to: 'a@example.test' })).status).toBe(403);
+    expect((await request(t.app).post(url).set(await t.auth({ keyScopes: ['read'] })).send({ to: 'a@example.test' })).status).toBe(403);
+    const bad = await request(t.app).post(url).set(await t.auth()).send({ to: 'not an address' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors[0].pointer).toBe('/to');
+    expect((await request(t.app).post('/api/v1/circuits/no-such-circuit/report/email').set(await t.auth()).send({ to: 'a@example.test' })).status).toBe(404);
+    expect(t.mailbox!.messages().length).toBe(before);
+  });
+
   it('when the format is unknown, then 400 names the parameter', async () => {
     const res = await request(t.app).get(`/api/v1/circuits/${circuitId}/report`).query({ format: 'docx' }).set(await t.auth());
     expect(res.status).toBe(400);
@@ -123,5 +154,22 @@ describe('reports', () => {
     expect((await request(t.app).get(`/api/v1/circuits/${theirs.id}/report`).set(auth)).status).toBe(404);
     expect((await request(t.app).get(`/api/v1/sites/${site.id}/report`).query({ format: 'csv' }).set(auth)).status).toBe(404);
     expect((await request(t.app).get(`/api/v1/circuits/${circuitId}/report`).set(await t.auth({ keyScopes: ['ingest'] }))).status).toBe(403);
+  });
+});
+
+describe('report e-mail without a working mail server', () => {
+  it('when the mail server refuses the connection, then 503 and nothing half-done is reported as sent', async () => {
+    // Port 1 on the loopback interface: nothing listens there, so the connection is refused at once.
+    const t = await makeTestApp({ config: { smtpUrl: 'smtp://127.0.0.1:1' } });
+    try {
+      const auth = await t.auth();
+      const siteId = (await request(t.app).post('/api/v1/sites').set(auth).send({ name: 'Quiet site' })).body.id;
+      const circuitId = (await request(t.app).post(`/api/v1/sites/${siteId}/circuits`).set(auth).send(counter)).body.id;
+      const res = await request(t.app).post(`/api/v1/circuits/${circuitId}/report/email`).set(auth).send({ to: 'client@example.test' });
+      expect(res.status).toBe(503);
+      expect(res.body.type).toBe('/problems/unavailable');
+    } finally {
+      await t.close();
+    }
   });
 });

@@ -2,7 +2,7 @@ import type { Response } from 'express';
 import type { RenderedReport } from '../../services/reports/index.js';
 import { defineRoute, type RouteDefinition } from '../define-route.js';
 import { CircuitParams } from './schemas/circuits.js';
-import { ReportQuery } from './schemas/reports.js';
+import { ReportEmail, ReportEmailSent, ReportQuery } from './schemas/reports.js';
 import { SiteParams } from './schemas/sites.js';
 
 const tags = ['Reports'];
@@ -58,5 +58,29 @@ export const reportRoutes: RouteDefinition[] = [
     async ({ services, scope, params, query, res }) => {
       send(res, await services.reports.siteReport(scope, params.siteId, query.format));
     },
+  ),
+  defineRoute(
+    {
+      method: 'post',
+      path: '/circuits/{circuitId}/report/email',
+      operationId: 'emailCircuitReport',
+      summary: 'E-mail the PDF report of a circuit to one address',
+      description:
+        'Sends the circuit report (PDF attached, the verdict, reasons and cautions in the text) through the e-mail set-up ' +
+        '(SMTP_URL). 503 when mail is not configured or the mail server does not accept the message.',
+      tags,
+      permission: 'report',
+      params: CircuitParams,
+      body: ReportEmail,
+      responses: {
+        200: { description: 'Sent: the address, subject, attachment name and verdict', schema: ReportEmailSent },
+        409: { description: 'The circuit as recorded cannot be judged' },
+        503: { description: 'E-mail is not configured, or the mail server refused the message' },
+      },
+    },
+    async ({ services, scope, params, body }) => ({
+      status: 200,
+      body: await services.reports.emailCircuitReport(scope, params.circuitId, body),
+    }),
   ),
 ];

@@ -1,6 +1,7 @@
 import type { Scope } from '../../auth/scope.js';
 import { Problem } from '../../errors/problem.js';
 import type { Db } from '../../db/open.js';
+import type { Mailer } from '../../mail/mailer.js';
 import type { ChecksService } from '../checks.js';
 import type { CircuitsService } from '../circuits.js';
 import type { SitesService } from '../sites.js';
@@ -44,8 +45,29 @@ function render(
   return renderPdfReport(header, circuits, skipped).then((body) => ({ body, contentType: 'application/pdf', filename }));
 }
 
-export function createReportsService(deps: { db: Db; sites: SitesService; circuits: CircuitsService; checks: ChecksService }) {
-  const { db, sites, circuits, checks } = deps;
+/** The plain-text body of a report e-mail: the verdict, its reasons and the cautions; the PDF is attached. */
+export function reportEmailText(header: ReportHeader, data: CircuitReportData, note: string | undefined): string {
+  const { check } = data;
+  const lines = [
+    ...(note ? [note, ''] : []),
+    `${header.title}`,
+    `Site: ${header.site.name}${header.site.address ? `, ${header.site.address}` : ''}`,
+    '',
+    `Verdict: ${check.verdictLabel}`,
+    check.summary,
+    `Headroom left: ${Math.round(check.headroomA * 100) / 100} A of the ${check.steady.ratingA} A rating.`,
+    '',
+    ...(check.reasons.length > 0 ? ['Reasons:', ...check.reasons.map((r) => `- ${r.message} (${r.citation.code} ${r.citation.edition} ${r.citation.section})`), ''] : []),
+    'Cautions:',
+    ...check.cautions.map((c) => `- ${c.text}`),
+    '',
+    `Prepared by ${header.preparedBy} on ${header.preparedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC. The full report is attached as a PDF.`,
+  ];
+  return lines.join('\n');
+}
+
+export function createReportsService(deps: { db: Db; sites: SitesService; circuits: CircuitsService; checks: ChecksService; mailer: Mailer }) {
+  const { db, sites, circuits, checks, mailer } = deps;
 
   async function circuitData(scope: Scope, circuitId: string): Promise<CircuitReportData> {
     const run = await checks.run(scope, circuitId);
@@ -74,6 +96,26 @@ export function createReportsService(deps: { db: Db; sites: SitesService; circui
       const data = await circuitData(scope, circuitId);
       const h = await header(scope, data.circuit.siteId, `Headroom circuit report: ${data.circuit.label}`);
       return render(format, h, [data], data.circuit.label);
+    },
+
+    /**
+     * Sends the circuit's PDF report to one address through the configured mailer (503 when mail is not
+     * set up or the server refuses). Returns what was sent.
+     */
+    async emailCircuitReport(scope: Scope, circuitId: string, input: { to: string; message?: string | undefined }) {
+      const data = await circuitData(scope, circuitId);
+      const h = await header(scope, data.circuit.siteId, `Headroom circuit report: ${data.circuit.label}`);
+      const pdf = await render('pdf', h, [data], data.circuit.label);
+      // A label is one line in the subject whatever it holds.
+      const subject = `Headroom report: ${data.circuit.label} (${h.site.name}) - ${data.check.verdictLabel}`.replace(/[\r\n]+/g, ' ');
+      await mailer.send({
+        to: input.to,
+        subject,
+        text: reportEmailText(h, data, input.message),
+        attachments: [{ filename: pdf.filename, content: pdf.body, contentType: pdf.contentType }],
+        organisationId: scope.organisationId,
+      });
+      return { to: input.to, subject, filename: pdf.filename, verdict: data.check.verdict };
     },
 
     /** The report of a site: a summary of every circuit's verdict, then each circuit in full. */

@@ -1,0 +1,78 @@
+import { PDFParse } from 'pdf-parse';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_CIRCUITS, DEMO_ORGANISATION, DEMO_SITES, seedDemo } from '../../../../seeds/demo.js';
+import { mintCredentials } from '../../testing/credentials.js';
+import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+
+/**
+ * The verdicts README "How Headroom judges a circuit" shows for the demo circuits, checked through the API on
+ * the demo seed. If the demo data changes, change the README table with this test.
+ */
+describe('the demo circuits give the verdicts the README shows', () => {
+  let t: TestApp;
+  let auth: Record<string, string>;
+  const [counter, cooler, bench] = DEMO_CIRCUITS;
+
+  beforeAll(async () => {
+    t = await makeTestApp();
+    await seedDemo(t.db);
+    auth = await mintCredentials(t.app.locals.services, DEMO_ORGANISATION.id, 'engineer');
+  });
+  afterAll(() => t.close());
+
+  const check = async (id: string) => (await request(t.app).get(`/api/v1/circuits/${id}/check`).set(auth).expect(200)).body;
+
+  it('Kitchen counter K3: over the limit — mixer 9.5 A + urn 1500 W / 120 V = 12.5 A make 22 A on a 20 A circuit', async () => {
+    // source: NEC 2023 210.23 (never above the rating); 1500 W at 120 V → 12.5 A (trade-facts 6.5 #21)
+    const body = await check(counter!.id);
+    expect(body.verdict).toBe('over-the-limit');
+    expect(body.steady.runningTotalA).toBeCloseTo(22, 9);
+    expect(body.headroomA).toBeCloseTo(-2, 9);
+    expect(body.reasons[0]).toMatchObject({ ruleId: 'nec-210.23-total-within-rating', citation: { edition: 2023, section: '210.23' } });
+    // each alone would fit: 9.5 A and 12.5 A are within the 16 A one-appliance share, 210.23(B)(1)
+    expect(body.reasons.some((r: { ruleId: string }) => r.ruleId === 'nec-210.23-cord-and-plug-share')).toBe(false);
+  });
+
+  it('Walk-in cooler K7: fine — 9.8 A continuous needs 12.25 A of a 15 A individual circuit', async () => {
+    // source: NEC 210.20(A): 9.8 × 1.25 = 12.25 A ≤ 15 A; headroom 15 − 12.25 = 2.75 A; 210.22 individual circuit
+    const body = await check(cooler!.id);
+    expect(body.verdict).toBe('fine');
+    expect(body.steady.requiredRatingA).toBeCloseTo(12.25, 9);
+    expect(body.headroomA).toBeCloseTo(2.75, 9);
+    expect(body.warnings).toEqual([]); // 14 AWG Cu on 15 A is within 240.4(D)
+  });
+
+  it('Bench sockets C16: tight — a 2 hp compressor start taken as 6 × 12 A = 72 A, just under the 80 A band', async () => {
+    // source: NEC Table 430.248 2 hp at 230 V → 12 A; 6 × FLC start (common practice, no source);
+    // IEC 60898-1 curve C no-trip edge 5 In = 80 A → 8 A to spare; headroom 16 − 8.7 = 7.3 A
+    const body = await check(bench!.id);
+    expect(body.verdict).toBe('tight');
+    expect(body.loads[0]).toMatchObject({ startUpSource: 'motor-six-times-flc', startPeakA: 72 });
+    expect(body.startHeadroomA).toBeCloseTo(8, 9);
+    expect(body.headroomA).toBeCloseTo(7.3, 9);
+    expect(body.reasons.map((r: { verdict: string }) => r.verdict)).toEqual(['tight']);
+    expect(body.reasons[0].ruleId).toBe('thermal-band');
+  });
+
+  it('the hall\'s site report names both hall circuits with their verdicts', async () => {
+    const res = await request(t.app)
+      .get(`/api/v1/sites/${DEMO_SITES[0]!.id}/report`)
+      .set(auth)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    const parser = new PDFParse({ data: new Uint8Array(res.body as Buffer) });
+    const text = (await parser.getText()).text.replace(/\s+/g, ' ');
+    await parser.destroy();
+    expect(text).toContain('Kitchen counter, left (K3)');
+    expect(text).toContain('Verdict: Over the limit');
+    expect(text).toContain('Walk-in cooler (K7)');
+    expect(text).toContain('Verdict: Fine');
+    expect(text).toContain('Prepared by Test engineer');
+  });
+});
