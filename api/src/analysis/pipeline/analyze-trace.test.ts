@@ -123,3 +123,16 @@ describe('analyzeTrace on rms traces (properties)', () => {
     );
   });
 });
+
+describe('analyzeTrace on arbitrary waveforms (property)', () => {
+  it('never gives NaN or throws for finite samples when the mains frequency is given', () => {
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: -500, max: 500, noNaN: true }), { minLength: 300, maxLength: 3000 }), (values) => {
+        const result = analyzeTrace({ kind: 'waveform', samples: Float64Array.from(values), sampleRateHz: 6000 }, { mainsFrequencyHz: 50 });
+        expect(JSON.stringify(result)).not.toMatch(/NaN|Infinity/);
+        expect(result.rmsSeriesLength).toBe(Math.floor(values.length / 60) - 1);
+      }),
+      { numRuns: 100 },
+    );
+  });
+});

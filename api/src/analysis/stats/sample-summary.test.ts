@@ -132,3 +132,13 @@ describe('mergeSummaries', () => {
     expect(() => mergeSummaryList([])).toThrow(RangeError);
   });
 });
+
+describe('summaries as stored JSON', () => {
+  it('survive a JSON round trip and still merge to the direct figures', () => {
+    const axis = uniformTimeAxis(0, 50);
+    const a = Float64Array.from({ length: 10_000 }, (_, i) => 3 + Math.sin(i / 10) * 2);
+    const options = { gapThresholdS: 0.05, thresholdsA: [4] };
+    const stored = [0, 4096, 8192].map((c) => JSON.parse(JSON.stringify(summarise(axis, a, c, Math.min(c + 4096, a.length), options))) as SampleSummary);
+    expectSummariesEqual(mergeSummaryList(stored), summarise(axis, a, 0, a.length, options));
+  });
+});
