@@ -113,7 +113,6 @@ export function createReportsService(deps: { db: Db; sites: SitesService; circui
         subject,
         text: reportEmailText(h, data, input.message),
         attachments: [{ filename: pdf.filename, content: pdf.body, contentType: pdf.contentType }],
-        organisationId: scope.organisationId,
       });
       return { to: input.to, subject, filename: pdf.filename, verdict: data.check.verdict };
     },
