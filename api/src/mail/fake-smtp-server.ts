@@ -2,12 +2,15 @@ import { randomUUID } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+import { ORGANISATION_HEADER } from './mailer.js';
 
 /** One message received by the fake SMTP server. */
 export interface ReceivedMail {
   id: string;
   from: string;
   to: string[];
+  /** From the X-Headroom-Organisation header, when the sender set it. */
+  organisationId: string | null;
   subject: string;
   text: string;
   html: string | null;
@@ -34,6 +37,10 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string[]
   return list.flatMap((a) => a.value.map((v) => v.address ?? '')).filter(Boolean);
 }
 
+function headerText(value: unknown): string | null {
+  return typeof value === 'string' && value.length > 0 ? value : null;
+}
+
 /**
  * A local SMTP server for development and tests: accepts every message (no TLS, no authentication) on
  * 127.0.0.1 and keeps it in memory. `npm start` runs it when no SMTP_URL is configured, so invitations
@@ -55,6 +62,7 @@ export async function startFakeSmtpServer(options: { host?: string; port?: numbe
             id: randomUUID(),
             from: addresses(parsed.from)[0] ?? (session.envelope.mailFrom ? session.envelope.mailFrom.address : ''),
             to: session.envelope.rcptTo.map((r) => r.address),
+            organisationId: headerText(parsed.headers.get(ORGANISATION_HEADER.toLowerCase())),
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : null,

@@ -1,6 +1,9 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { Problem } from '../errors/problem.js';
 
+/** Header naming the organisation a message is about (see MailMessage.organisationId). */
+export const ORGANISATION_HEADER = 'X-Headroom-Organisation';
+
 export interface MailAttachment {
   filename: string;
   content: Buffer | string;
@@ -13,6 +16,11 @@ export interface MailMessage {
   text: string;
   html?: string;
   attachments?: MailAttachment[];
+  /**
+   * The organisation the mail is about. Sent as an `X-Headroom-Organisation` header so the development
+   * mailbox shows each organisation only its own mail.
+   */
+  organisationId?: string;
 }
 
 export interface Mailer {
@@ -31,7 +39,9 @@ export function createMailer(options: { smtpUrl: string | undefined; from: strin
       if (!options.smtpUrl) throw new Problem('unavailable', 'E-mail is not configured: set SMTP_URL');
       transporter ??= nodemailer.createTransport(options.smtpUrl);
       try {
-        const info = (await transporter.sendMail({ from: options.from, ...message })) as { messageId: string };
+        const { organisationId, ...content } = message;
+        const headers = organisationId ? { [ORGANISATION_HEADER]: organisationId } : {};
+        const info = (await transporter.sendMail({ from: options.from, ...content, headers })) as { messageId: string };
         return { messageId: info.messageId };
       } catch (err) {
         throw new Problem('unavailable', 'The mail server did not accept the message; try again later', { cause: err });

@@ -130,7 +130,7 @@ export function createAccountsService(deps: {
       const { token, expiresAt } = await db.sequelize.transaction((transaction) => tokens.issue(user, 'password-reset', transaction));
       await audit.record({ organisationId: user.organisationId, action: 'password-reset.requested', actor: userActor(user), target: { kind: 'user', id: user.id, label: user.email }, address });
       const message = passwordResetMessage({ to: user.email, name: user.name, link: linkTo(config.publicUrl, '/reset-password', token), expiresAt });
-      mailer.send(message).catch((err: unknown) => logger?.error({ err }, 'password-reset mail was not sent'));
+      mailer.send({ ...message, organisationId: user.organisationId }).catch((err: unknown) => logger?.error({ err }, 'password-reset mail was not sent'));
     },
 
     /** Sets a new password from a reset link and ends every session of the user. */

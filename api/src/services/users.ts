@@ -56,6 +56,15 @@ export function createUsersService(deps: { db: Db; config: Config; mailer: Maile
   return {
     find,
 
+    /**
+     * The part of the development mailbox an organisation may see: mail tagged with the organisation, or
+     * untagged mail addressed to one of its users.
+     */
+    async visibleMail<M extends { organisationId: string | null; to: string[] }>(scope: Scope, messages: M[]): Promise<M[]> {
+      const members = new Set((await User.findAll({ where: { organisationId: scope.organisationId }, attributes: ['email'] })).map((u) => u.email));
+      return messages.filter((m) => (m.organisationId ? m.organisationId === scope.organisationId : m.to.some((to) => members.has(normaliseEmail(to)))));
+    },
+
     async list(scope: Scope, opts: { limit: number; cursor?: string | undefined; q?: string | undefined }): Promise<Page<UserView>> {
       const where: WhereOptions = {
         organisationId: scope.organisationId,
@@ -89,8 +98,8 @@ export function createUsersService(deps: { db: Db; config: Config; mailer: Maile
         return { user: u, ...(await tokens.issue(u, 'invitation', transaction)) };
       });
       try {
-        await mailer.send(
-          invitationMessage({
+        await mailer.send({
+          ...invitationMessage({
             to: email,
             inviteeName: user.name,
             organisationName: organisation?.name ?? 'your organisation',
@@ -98,7 +107,8 @@ export function createUsersService(deps: { db: Db; config: Config; mailer: Maile
             link: linkTo(config.publicUrl, '/accept-invitation', token),
             expiresAt,
           }),
-        );
+          organisationId: scope.organisationId,
+        });
       } catch (err) {
         if (!existing) await User.destroy({ where: { id: user.id } });
         throw err;

@@ -781,7 +781,7 @@ export interface paths {
         };
         /**
          * Mail received by the local fake SMTP server (development only)
-         * @description Only when Headroom runs its own fake SMTP server (no SMTP_URL configured): every message the server sent, newest first, without attachment contents. 404 otherwise. The fake server keeps the mail of every organisation, so only admins may read it.
+         * @description Only when Headroom runs its own fake SMTP server (no SMTP_URL configured): the messages about the caller's organisation (or addressed to its users), newest first, without attachment contents. 404 otherwise.
          *
          *     Permission `admin`: roles admin; API-key scopes none.
          */
