@@ -20,8 +20,35 @@ export function zodIssuesToFieldErrors(issues: readonly z.core.$ZodIssue[], part
   });
 }
 
+/**
+ * Paths of the strings in a request value that hold U+0000. PostgreSQL cannot store it in text and
+ * Sequelize's inlined SQLite literals end at it, so it is refused at the door. Iterative: a hostile body
+ * may nest thousands of levels deep.
+ */
+export function nulCharacterPaths(value: unknown): PropertyKey[][] {
+  const found: PropertyKey[][] = [];
+  const stack: Array<{ value: unknown; path: PropertyKey[] }> = [{ value, path: [] }];
+  while (stack.length > 0 && found.length < 20) {
+    const item = stack.pop()!;
+    if (typeof item.value === 'string') {
+      if (item.value.includes('\u0000')) found.push(item.path);
+    } else if (item.value && typeof item.value === 'object') {
+      for (const [key, child] of Object.entries(item.value)) {
+        if (key.includes('\u0000')) found.push([...item.path, key]);
+        stack.push({ value: child, path: [...item.path, Array.isArray(item.value) ? Number(key) : key] });
+      }
+    }
+  }
+  return found;
+}
+
 /** Parses one part of a request with its schema; a failure is a 400 validation problem naming each field. */
 export function parseRequestPart<S extends z.ZodType>(schema: S, value: unknown, part: RequestPart): z.output<S> {
+  const nul = nulCharacterPaths(value);
+  if (nul.length > 0) {
+    const detail = 'must not contain the NUL character (U+0000)';
+    throw invalid(nul.map((path) => (part === 'body' ? { detail, pointer: toJsonPointer(path) } : { detail, parameter: String(path[0] ?? '') })));
+  }
   const result = schema.safeParse(value);
   if (!result.success) throw invalid(zodIssuesToFieldErrors(result.error.issues, part));
   return result.data;
