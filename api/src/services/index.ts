@@ -10,8 +10,8 @@ import { createAuditService } from './audit.js';
 import { createChecksService } from './checks.js';
 import { createCircuitsService } from './circuits.js';
 import { createLoadsService } from './loads.js';
-import { createReportsService } from './reports/index.js';
 import { createOneTimeTokensService } from './one-time-tokens.js';
+import { createReportsService } from './reports/index.js';
 import { createSessionsService } from './sessions.js';
 import { createSitesService } from './sites.js';
 import { createTracesService } from './traces.js';
@@ -38,7 +38,7 @@ export function createServices(db: Db, config: Config, extras: ServiceExtras = {
   const loads = createLoadsService(db, circuits);
   const traces = createTracesService(db, config);
   const checks = createChecksService({ circuits, loads, traces });
-  const reports = createReportsService({ db, sites, circuits, checks, mailer });
+  const reports = createReportsService({ db, sites, circuits, checks, mailer, traces });
   const analysis = createAnalysisService();
   return { db, mailer, mailbox, audit, sessions, apiKeys, users, accounts, sites, circuits, loads, checks, reports, analysis, traces };
 }

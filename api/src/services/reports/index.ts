@@ -5,9 +5,10 @@ import type { Mailer } from '../../mail/mailer.js';
 import type { ChecksService } from '../checks.js';
 import type { CircuitsService } from '../circuits.js';
 import type { SitesService } from '../sites.js';
+import type { TraceReader } from '../trace-figures.js';
 import { renderCsvReport } from './csv-report.js';
 import { renderPdfReport } from './pdf-report.js';
-import { describePreparer, stackedStartPlot, type CircuitReportData, type ReportHeader, type SkippedCircuit } from './report-data.js';
+import { describePreparer, recordedTracesPlot, stackedStartPlot, type CircuitReportData, type ReportHeader, type SkippedCircuit } from './report-data.js';
 
 export type ReportFormat = 'pdf' | 'csv';
 
@@ -66,12 +67,24 @@ export function reportEmailText(header: ReportHeader, data: CircuitReportData, n
   return lines.join('\n');
 }
 
-export function createReportsService(deps: { db: Db; sites: SitesService; circuits: CircuitsService; checks: ChecksService; mailer: Mailer }) {
-  const { db, sites, circuits, checks, mailer } = deps;
+export function createReportsService(deps: {
+  db: Db;
+  sites: SitesService;
+  circuits: CircuitsService;
+  checks: ChecksService;
+  mailer: Mailer;
+  traces?: TraceReader | undefined;
+}) {
+  const { db, sites, circuits, checks, mailer, traces } = deps;
 
   async function circuitData(scope: Scope, circuitId: string): Promise<CircuitReportData> {
     const run = await checks.run(scope, circuitId);
-    return { circuit: await circuits.get(scope, circuitId), check: run.view, plot: stackedStartPlot(run) };
+    return {
+      circuit: await circuits.get(scope, circuitId),
+      check: run.view,
+      plot: stackedStartPlot(run),
+      recorded: traces ? await recordedTracesPlot(traces, scope, run) : null,
+    };
   }
 
   async function header(scope: Scope, siteId: string, title: string): Promise<ReportHeader> {

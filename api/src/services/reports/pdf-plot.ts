@@ -87,7 +87,7 @@ function formatTick(value: number, step: number): string {
 export function drawCurrentPlot(doc: PDFKit.PDFDocument, spec: PlotSpec, box: PlotBox): void {
   const left = box.x + 40;
   const right = box.x + box.width - 10;
-  const top = box.y + 8;
+  const top = box.y + 16;
   const bottom = box.y + box.height - 28;
   let tMin = Infinity;
   let tMax = -Infinity;
@@ -121,7 +121,7 @@ export function drawCurrentPlot(doc: PDFKit.PDFDocument, spec: PlotSpec, box: Pl
   }
   doc.lineWidth(0.8).strokeColor('#404040').moveTo(left, top).lineTo(left, bottom).lineTo(right, bottom).stroke();
   doc.text(toWinAnsi(spec.xLabel), left, bottom + 12, { width: right - left, align: 'center', lineBreak: false });
-  doc.text(toWinAnsi(spec.yLabel), box.x, top - 8, { lineBreak: false });
+  doc.text(toWinAnsi(spec.yLabel), box.x, box.y, { lineBreak: false });
 
   const labelYs: number[] = [];
   for (const limit of spec.limits) {

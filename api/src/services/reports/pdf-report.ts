@@ -4,7 +4,7 @@ import type { Verdict } from '../../analysis/check/verdict.js';
 import { VERDICT_LABELS } from '../checks.js';
 import { drawCurrentPlot } from './pdf-plot.js';
 import { toWinAnsi } from './pdf-text.js';
-import type { CircuitReportData, ReportHeader, SkippedCircuit } from './report-data.js';
+import type { CircuitReportData, ReportHeader, ReportPlot, SkippedCircuit } from './report-data.js';
 
 /** Banner colours of the verdicts: Headroom's own, readable in greyscale print (dark to light by severity). */
 const VERDICT_COLORS: Readonly<Record<Verdict, string>> = {
@@ -116,6 +116,17 @@ function table(doc: Doc, columns: Column[], rows: string[][]): void {
   drawRow(columns.map((c) => c.header), true);
   for (const row of rows) drawRow(row, false);
   doc.moveDown(0.3);
+}
+
+/** A plot with its heading and note, on a new page when less than its height is left. */
+function plot(doc: Doc, p: ReportPlot): void {
+  ensureSpace(doc, 250);
+  heading(doc, p.title);
+  const box = { x: MARGIN, y: doc.y + 4, width: contentWidth(doc), height: 200 };
+  drawCurrentPlot(doc, { series: p.series, limits: p.limits, xLabel: p.xLabel, yLabel: 'current (A RMS)' }, box);
+  doc.x = MARGIN;
+  doc.y = box.y + box.height + 6;
+  paragraph(doc, p.note, { size: 8, color: '#505050' });
 }
 
 function verdictBanner(doc: Doc, verdict: Verdict): void {
@@ -230,13 +241,8 @@ function circuitSection(doc: Doc, data: CircuitReportData): void {
     `All loads running together (${amps(check.steady.runningTotalA)} A, held): the thermal element ${thermalWords(allRunning)}.`,
   );
 
-  ensureSpace(doc, 250);
-  heading(doc, data.plot.title);
-  const box = { x: MARGIN, y: doc.y + 4, width: contentWidth(doc), height: 200 };
-  drawCurrentPlot(doc, { series: data.plot.series, limits: data.plot.limits, xLabel: 'time from switch-on (s)', yLabel: 'current (A RMS)' }, box);
-  doc.x = MARGIN;
-  doc.y = box.y + box.height + 6;
-  paragraph(doc, data.plot.note, { size: 8, color: '#505050' });
+  plot(doc, data.plot);
+  if (data.recorded) plot(doc, data.recorded);
 
   if (check.assumptions.length > 0) {
     heading(doc, 'Assumptions');
