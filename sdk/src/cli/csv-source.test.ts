@@ -4,7 +4,7 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { InputFileError, planCsv, readCsvBatches, type CsvOptions, type CsvTotals } from './csv-source.js';
 
-export const UCI_FILE = path.resolve(__dirname, '../../../../shared/reference-data/uci-household-power/household_power_consumption_2006-12-16_2007-01-19.txt');
+const UCI_FILE = path.resolve(__dirname, '../../../../shared/reference-data/uci-household-power/household_power_consumption_2006-12-16_2007-01-19.txt');
 
 function tempCsv(text: string): string {
   const file = path.join(mkdtempSync(path.join(tmpdir(), 'headroom-csv-')), 'trace.csv');

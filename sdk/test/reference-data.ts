@@ -1,0 +1,4 @@
+import path from 'node:path';
+
+/** The UCI household power subset (shared/reference-data/README.md, section 1). */
+export const UCI_FILE = path.resolve(__dirname, '../../../shared/reference-data/uci-household-power/household_power_consumption_2006-12-16_2007-01-19.txt');
