@@ -12,9 +12,8 @@
  * Sources: B. P. Welford, "Note on a method for calculating corrected sums of squares and products",
  * Technometrics 4(3), 1962; T. F. Chan, G. H. Golub, R. J. LeVeque, "Algorithms for computing the
  * sample variance: analysis and recommendations", The American Statistician 37(3), 1983 (pairwise
- * update and the "shifted data" sums). Within a block of 4,096 samples the kernel sums deviations
- * from the block's first sample (relative error below ε·(n + 1), see valuesPass); blocks are then
- * merged pairwise.
+ * update). Within a block of samples the kernel uses the two-pass algorithm (mean, then squared
+ * deviations), which Chan et al. recommend; blocks are then merged pairwise.
  */
 
 import {
@@ -127,7 +126,6 @@ interface Accumulator {
   // The block being scanned (set by valuesPass).
   blockSum: number;
   blockSquares: number;
-  blockM2: number;
   blockMin: number;
   blockMinIndex: number;
   blockMax: number;
@@ -181,7 +179,7 @@ export function summarise(
     covered: 0, integral2x: 0, integral2x2: 0,
     gapCount: 0, gapTime: 0, longestStart: 0, longestEnd: 0,
     timeAbove: new Float64Array(thresholds.length),
-    blockSum: 0, blockSquares: 0, blockM2: 0, blockMin: 0, blockMinIndex: 0, blockMax: 0, blockMaxIndex: 0,
+    blockSum: 0, blockSquares: 0, blockMin: 0, blockMinIndex: 0, blockMax: 0, blockMaxIndex: 0,
   };
   const dt = explicit === null ? 1 / (axis as { rateHz: number }).rateHz : 0;
   if (explicit === null && dt > gap) {
@@ -222,9 +220,9 @@ function throwExplicitEnd(t: Float64Array, from: number, to: number): never {
 
 /**
  * The scan over samples [from, to), block by block (each block stays in cache between its passes):
- * a values pass (sum, M2, min and max), the check for bad values, with explicit times a second pass
- * for the trapezoid sums, gaps and first threshold, the pairwise merge into the running moments,
- * then one short pass per further threshold. Hot loops are kept free of rare work, and
+ * a values pass (sum, sum of squares, min and max), the check for bad values, a second pass for the
+ * block's M2 (and, with explicit times, the trapezoid sums and gaps), the pairwise merge into the
+ * running moments, then one short pass per threshold. Hot loops are kept free of rare work, and
  * the scan lives outside `summarise`: V8 compiles these loops markedly worse when they are
  * inlined into a larger function or share a body with rarely taken branches.
  */
@@ -251,9 +249,13 @@ function scanBlocks(
     }
     const n = b1 - b0;
     const blockMean = acc.blockSum / n;
-    const blockM2 = acc.blockM2;
-    if (explicit !== null) explicitSecondPass(acc, a, explicit, i0, b1, gap, firstThreshold, options);
-    else if (dt > 0) addUniformIntegrals(acc, a, b0, i0, b1, dt);
+    let blockM2: number;
+    if (explicit !== null) {
+      blockM2 = explicitSecondPass(acc, a, explicit, b0, i0, b1, blockMean, gap, firstThreshold, options);
+    } else {
+      blockM2 = squaredDeviations(a, b0, b1, blockMean);
+      if (dt > 0) addUniformIntegrals(acc, a, b0, i0, b1, dt);
+    }
     const total = acc.count + n;
     const delta = blockMean - acc.mean;
     acc.mean += (delta * n) / total;
@@ -279,15 +281,10 @@ function scanBlocks(
 }
 
 /**
- * Sum, M2, min and max (first occurrence) of a[b0, b1) in one pass, two samples per step with
- * separate accumulators (the loop is bound by add latency), into acc.block*. M2 comes from sums of
- * deviations from the block's first sample K: M2 = Σ(x − K)² − (Σ(x − K))² / n, the "shifted data"
- * method. Its rounding error is about ε·(M2 + n·(mean − K)²), and since K is one of the samples,
- * (mean − K)² ≤ M2, so the relative error stays below ε·(n + 1) ≈ 5e-13 for 4,096-sample blocks
- * (Chan, Golub & LeVeque 1983, section 3).
+ * Sum, sum of squares, min and max (first occurrence) of a[b0, b1), two samples per step with
+ * separate accumulators (the loop is bound by add latency), into acc.block*.
  */
 function valuesPass(acc: Accumulator, a: SampleArray, b0: number, b1: number): void {
-  const shift = a[b0] as number;
   let sumEven = 0;
   let sumOdd = 0;
   let squaresEven = 0;
@@ -300,12 +297,10 @@ function valuesPass(acc: Accumulator, a: SampleArray, b0: number, b1: number): v
   for (let i = b0; i < end2; i += 2) {
     const v = a[i] as number;
     const w = a[i + 1] as number;
-    const dv = v - shift;
-    const dw = w - shift;
-    sumEven += dv;
-    sumOdd += dw;
-    squaresEven += dv * dv;
-    squaresOdd += dw * dw;
+    sumEven += v;
+    sumOdd += w;
+    squaresEven += v * v;
+    squaresOdd += w * w;
     if (v < lo || w < lo) {
       if (v <= w) {
         lo = v;
@@ -327,9 +322,8 @@ function valuesPass(acc: Accumulator, a: SampleArray, b0: number, b1: number): v
   }
   if (end2 < b1) {
     const v = a[end2] as number;
-    const dv = v - shift;
-    sumEven += dv;
-    squaresEven += dv * dv;
+    sumEven += v;
+    squaresEven += v * v;
     if (v < lo) {
       lo = v;
       loIndex = end2;
@@ -339,17 +333,22 @@ function valuesPass(acc: Accumulator, a: SampleArray, b0: number, b1: number): v
       hiIndex = end2;
     }
   }
-  const n = b1 - b0;
-  const shiftedSum = sumEven + sumOdd;
-  const shiftedSquares = squaresEven + squaresOdd;
-  acc.blockSum = shift * n + shiftedSum;
-  acc.blockM2 = Math.max(0, shiftedSquares - (shiftedSum * shiftedSum) / n);
-  // Σ x² = Σ (x − K)² + 2K·Σ (x − K) + n·K², for the uniform trapezoid sums.
-  acc.blockSquares = shiftedSquares + 2 * shift * shiftedSum + n * shift * shift;
+  acc.blockSum = sumEven + sumOdd;
+  acc.blockSquares = squaresEven + squaresOdd;
   acc.blockMin = lo;
   acc.blockMinIndex = loIndex;
   acc.blockMax = hi;
   acc.blockMaxIndex = hiIndex;
+}
+
+/** Σ (a[i] − mean)² over a[b0, b1): the block's M2 by the two-pass method. */
+function squaredDeviations(a: SampleArray, b0: number, b1: number, mean: number): number {
+  let m2 = 0;
+  for (let i = b0; i < b1; i++) {
+    const d = (a[i] as number) - mean;
+    m2 += d * d;
+  }
+  return m2;
 }
 
 /**
@@ -368,21 +367,28 @@ function addUniformIntegrals(acc: Accumulator, a: SampleArray, b0: number, i0: n
 }
 
 /**
- * Second pass over a block with explicit times: the trapezoid sums and the time above the first
- * threshold `h0` (NaN: none) over the intervals ending at i0..b1-1. Intervals longer than `gap` are
- * recorded as gaps and skipped; a timestamp that is not finite or not increasing is a RangeError.
+ * Second pass over a block with explicit times: its M2 (returned), and the trapezoid sums and the
+ * time above the first threshold `h0` (NaN: none) over the intervals ending at i0..b1-1. Intervals longer than `gap` are recorded as gaps and skipped; a
+ * timestamp that is not finite or not increasing is a RangeError.
  */
 function explicitSecondPass(
   acc: Accumulator,
   a: SampleArray,
   t: Float64Array,
+  b0: number,
   i0: number,
   b1: number,
+  mean: number,
   gap: number,
   h0: number,
   options: SummariseOptions,
-): void {
+): number {
+  let m2 = 0;
   let above = 0;
+  if (i0 > b0) {
+    const d = (a[b0] as number) - mean;
+    m2 = d * d;
+  }
   let previous = a[i0 - 1] as number;
   let previousSquare = previous * previous;
   let previousT = t[i0 - 1] as number;
@@ -392,6 +398,8 @@ function explicitSecondPass(
   for (let i = i0; i < b1; i++) {
     const v = a[i] as number;
     const square = v * v;
+    const d = v - mean;
+    m2 += d * d;
     const ti = t[i] as number;
     const dt = ti - previousT;
     if (dt > 0 && dt <= gap) {
@@ -411,6 +419,7 @@ function explicitSecondPass(
   acc.integral2x2 += s2;
   acc.covered += covered;
   if (acc.timeAbove.length > 0) acc.timeAbove[0] = (acc.timeAbove[0] as number) + above;
+  return m2;
 }
 
 /** An interval that is not an ordinary one: a gap (recorded) or bad timestamps (RangeError). */

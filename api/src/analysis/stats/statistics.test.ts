@@ -22,6 +22,9 @@ describe('computeStatistics against simple-statistics', () => {
     ['huge offset', Float64Array.from({ length: 20_000 }, () => 1e9 + rnd())],
     ['negative and positive', Float64Array.from({ length: 9000 }, () => rnd() * 200 - 100)],
     ['1e6 samples', Float64Array.from({ length: 1_000_000 }, () => 5 + 10 * rnd() * rnd())],
+    // Each 4,096-sample block starts with a far outlier: the worst case for shifted sums (see valuesPass).
+    ['outlier at every block start', Float64Array.from({ length: 3 * 4096 }, (_, i) => (i % 4096 === 0 ? 1e9 : 1 + rnd() * 1e-3))],
+    ['huge offset, tiny spread', Float64Array.from({ length: 50_000 }, () => 1e11 + rnd() * 1e-2)],
   ];
   for (const [name, x] of cases) {
     it(`agrees on ${name}`, () => {
