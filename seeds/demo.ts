@@ -8,6 +8,7 @@
  * compressor on a C16 breaker.
  */
 import bcrypt from 'bcryptjs';
+import { formatApiKey, hashSecret } from '../api/src/auth/secrets.js';
 import type { Db } from '../api/src/db/open.js';
 import type { Role } from '../api/src/models/user.js';
 import type { DeviceKind } from '../api/src/models/circuit.js';
@@ -28,6 +29,18 @@ export const DEMO_USERS: Array<{ id: string; email: string; name: string; role: 
   { id: '00000000-0000-4000-8000-0000000000a2', email: 'engineer@demo.headroom.test', name: 'Tomás Lindqvist', role: 'engineer', password: 'demo-engineer-pass' },
   { id: '00000000-0000-4000-8000-0000000000a3', email: 'viewer@demo.headroom.test', name: 'Priya Nandakumar', role: 'viewer', password: 'demo-viewer-pass' },
 ];
+
+/**
+ * Demo API key (scopes ingest and read), printed at start while it is active. Demo data only: it is
+ * public, so revoke it (DELETE /api/v1/api-keys/de30000000000001) before real use.
+ */
+export const DEMO_API_KEY = {
+  id: 'de30000000000001',
+  name: 'Demo integration key (demo only)',
+  scopes: ['ingest', 'read'] as Array<'ingest' | 'read'>,
+  secret: 'demo-only-key-revoke-before-real-use-000000',
+};
+export const DEMO_API_KEY_TOKEN = formatApiKey(DEMO_API_KEY.id, DEMO_API_KEY.secret);
 
 interface DemoCircuit {
   id: string;
@@ -246,6 +259,19 @@ export async function seedDemo(db: Db, storeSamples?: StoreDemoSamples, now = ne
         passwordHash: await bcrypt.hash(u.password, 10),
       }, { transaction });
     }
+    await m.ApiKey.create({
+      id: DEMO_API_KEY.id,
+      organisationId: DEMO_ORGANISATION.id,
+      name: DEMO_API_KEY.name,
+      scopes: DEMO_API_KEY.scopes,
+      secretHash: hashSecret(DEMO_API_KEY.secret),
+      createdByUserId: DEMO_USERS[0]!.id,
+      expiresAt: null,
+      revokedAt: null,
+      rotatedAt: null,
+      lastUsedAt: null,
+      lastUsedFrom: null,
+    }, { transaction });
     for (const s of DEMO_SITES) await m.Site.create({ ...s, organisationId: DEMO_ORGANISATION.id }, { transaction });
     for (const c of DEMO_CIRCUITS) await m.Circuit.create({ ...c, organisationId: DEMO_ORGANISATION.id, necEdition: 2023 }, { transaction });
     for (const l of DEMO_LOADS) await m.Load.create({ ...l, organisationId: DEMO_ORGANISATION.id }, { transaction });

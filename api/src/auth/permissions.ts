@@ -8,9 +8,9 @@ import type { Scope } from './scope.js';
 export const PERMISSIONS = {
   /** No authentication at all (sign-in, password reset, accepting an invitation). */
   public: { roles: [], keyScopes: [], description: 'anyone, without credentials' },
-  read: { roles: ['admin', 'engineer', 'viewer'], keyScopes: ['read'], description: 'read sites, circuits, loads, traces and checks' },
-  write: { roles: ['admin', 'engineer'], keyScopes: [], description: 'create and edit sites, circuits and loads' },
-  ingest: { roles: ['admin', 'engineer'], keyScopes: ['ingest'], description: 'create traces and append samples' },
+  read: { roles: ['admin', 'engineer', 'viewer'], keyScopes: ['read'], description: 'read sites, circuits, loads, traces, checks and reports' },
+  write: { roles: ['admin', 'engineer'], keyScopes: [], description: 'create, edit and delete sites, circuits, loads and traces' },
+  ingest: { roles: ['admin', 'engineer'], keyScopes: ['ingest'], description: 'create traces, append samples, import and close traces' },
   analyze: { roles: ['admin', 'engineer', 'viewer'], keyScopes: ['read', 'ingest'], description: 'stateless analysis of posted samples' },
   report: { roles: ['admin', 'engineer'], keyScopes: [], description: 'send reports by e-mail' },
   admin: { roles: ['admin'], keyScopes: [], description: 'manage users, API keys and the audit log' },
@@ -34,4 +34,20 @@ export function holds(scope: Scope, permission: Permission): boolean {
       return scope.actor.scopes.some((s) => allowed.includes(s));
     }
   }
+}
+
+/**
+ * The matrix as a Markdown table, as it appears in the README ("Accounts, roles and API keys"); a test
+ * keeps the two identical.
+ */
+export function permissionTableMarkdown(): string {
+  const mark = (yes: boolean) => (yes ? 'yes' : '—');
+  const rows = (Object.entries(PERMISSIONS) as Array<[Permission, (typeof PERMISSIONS)[Permission]]>).map(([name, rule]) => {
+    const roles = rule.roles as readonly string[];
+    const scopes = rule.keyScopes as readonly string[];
+    const everyone = name === 'public';
+    const cells = [...(['admin', 'engineer', 'viewer'] as const).map((r) => mark(everyone || roles.includes(r))), ...(['read', 'ingest'] as const).map((s) => mark(everyone || scopes.includes(s)))];
+    return `| \`${name}\` | ${cells.join(' | ')} | ${rule.description} |`;
+  });
+  return ['| permission | admin | engineer | viewer | key `read` | key `ingest` | what it allows |', '| --- | --- | --- | --- | --- | --- | --- |', ...rows].join('\n');
 }
