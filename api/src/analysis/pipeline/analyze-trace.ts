@@ -186,6 +186,7 @@ export function analyzeTrace(input: TraceInput, params: AnalyzeParams = {}): Tra
   let mainsFrequencyHz: number | null = null;
   let mainsFrequencySource: 'given' | 'estimated' | null = null;
   let blocks: ReturnType<typeof halfCycleBlocks> | undefined;
+  let seriesMinA: number | undefined;
   if (input.kind === 'waveform') {
     const rateHz = input.sampleRateHz as number;
     if (params.mainsFrequencyHz !== undefined && params.mainsFrequencyHz !== null) {
@@ -211,12 +212,12 @@ export function analyzeTrace(input: TraceInput, params: AnalyzeParams = {}): Tra
     series = rms.rmsA;
     seriesAxis = explicitTimeAxis(rms.timesS);
   } else {
-    assertFiniteValues(amps, 'samples (in amperes)', MAX_ABS_CURRENT_A);
+    seriesMinA = assertFiniteValues(amps, 'samples (in amperes)', MAX_ABS_CURRENT_A).min;
     series = amps;
     seriesAxis = axis;
   }
 
-  const levels = resolveOnThreshold(series, eventParams);
+  const levels = resolveOnThreshold(series, eventParams, 0, series.length, seriesMinA);
   const statistics = computeStatistics(seriesAxis, series, { ...statisticsOptions, onThresholdA: levels.onThresholdA });
   const events = detectEvents(seriesAxis, series, eventParams, { levels, ...(blocks ? { blocks } : {}) });
   const lastIndex = input.samples.length - 1;

@@ -98,8 +98,8 @@ export function throwAtFirstBadValue(
 }
 
 /**
- * Checks that every value in values[from, to) is finite and within ±limit, in one pass.
- * Throws a RangeError naming the first bad index.
+ * Checks that every value in values[from, to) is finite and within ±limit, in one pass, and returns
+ * their min and max (±Infinity for an empty range). Throws a RangeError naming the first bad index.
  */
 export function assertFiniteValues(
   values: SampleArray,
@@ -107,7 +107,7 @@ export function assertFiniteValues(
   limit: number = MAX_ABS_CURRENT_A,
   from = 0,
   to: number = values.length,
-): void {
+): { min: number; max: number } {
   let lo = Infinity;
   let hi = -Infinity;
   let sum = 0;
@@ -119,4 +119,5 @@ export function assertFiniteValues(
   }
   // NaN makes the sum NaN; ±Infinity shows in lo/hi.
   if (sum !== sum || lo < -limit || hi > limit) throwAtFirstBadValue(values, from, to, limit, name);
+  return { min: lo, max: hi };
 }
