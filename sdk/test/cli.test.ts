@@ -26,12 +26,12 @@ beforeAll(async () => {
 afterAll(() => api.close());
 
 /** Runs `headroom …` in this process with HEADROOM_URL and HEADROOM_KEY set; returns its exit code and output. */
-async function cli(args: string[], options: { env?: Record<string, string | undefined>; signal?: AbortSignal } = {}) {
+async function cli(args: string[], options: { env?: Record<string, string | undefined>; signal?: AbortSignal; tty?: boolean } = {}) {
   let stdout = '';
   let stderr = '';
   const io = {
     stdout: { write: (s: string) => (stdout += s) },
-    stderr: { write: (s: string) => (stderr += s) },
+    stderr: { write: (s: string) => (stderr += s), isTTY: options.tty ?? false, columns: 100 },
     env: { HEADROOM_URL: api.baseUrl, HEADROOM_KEY: key, ...options.env },
   };
   const code = await runCli(args, io, options.signal);
@@ -98,6 +98,14 @@ describe('headroom push and stats, end to end', () => {
     } finally {
       await proxy.close();
     }
+  });
+
+  it('when the push runs in a terminal, then a progress bar counts the file\'s bytes to 100 %', async () => {
+    const shown = await cli(['push', UCI_FILE, '--new', '--name', 'With a bar', ...UCI_OPTIONS, '--batch', '20000'], { tty: true });
+    expect(shown.code).toBe(0);
+    expect(shown.stderr).toMatch(/push \|.*\| 100% \| 3\.1 of 3\.1 MB \| 48,419 samples/);
+    const hidden = await cli(['push', UCI_FILE, '--new', '--name', 'Without a bar', ...UCI_OPTIONS, '--no-progress'], { tty: true });
+    expect(hidden.stderr).not.toMatch(/push \|/);
   });
 
   it('when a float32 waveform file is pushed and closed, then the trace holds every value and its events', async () => {

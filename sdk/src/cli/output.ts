@@ -36,7 +36,8 @@ export function reportError(io: CliIo, error: unknown, json: boolean): number {
     io.stderr.write(`${lines.join('\n')}\n`);
     return EXIT.api;
   }
-  if (error instanceof InputFileError || error instanceof UsageError) {
+  // RangeError: a value the CLI or the SDK refused before sending (an unreadable --utc-offset, say).
+  if (error instanceof InputFileError || error instanceof UsageError || error instanceof RangeError) {
     io.stderr.write(`headroom: ${error.message}\n`);
     return EXIT.usage;
   }
