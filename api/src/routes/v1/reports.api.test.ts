@@ -120,6 +120,7 @@ describe('reports', () => {
     expect(mail.text).toContain('Verdict: Over the limit');
     expect(mail.text).toContain('NFPA 70 2023 210.23');
     expect(mail.text).toContain('qualified persons');
+    expect(mail.organisationId).toBe(t.organisationId);
     const [attachment] = mail.attachments;
     expect(attachment).toMatchObject({ contentType: 'application/pdf', filename: res.body.filename });
     expect((await pdfText(attachment!.content)).text).toContain('Verdict: Over the limit');

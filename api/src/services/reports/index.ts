@@ -126,6 +126,8 @@ export function createReportsService(deps: {
         subject,
         text: reportEmailText(h, data, input.message),
         attachments: [{ filename: pdf.filename, content: pdf.body, contentType: pdf.contentType }],
+        // Lets the development mailbox show the message to this organisation only.
+        organisationId: scope.organisationId,
       });
       return { to: input.to, subject, filename: pdf.filename, verdict: data.check.verdict };
     },
