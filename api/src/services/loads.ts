@@ -100,15 +100,26 @@ export function createLoadsService(db: Db, circuits: CircuitsService) {
     if (problems.length > 0) throw invalid(problems);
   }
 
-  /** Makes exactly `traceIds` the traces linked to the load. */
-  async function linkTraces(scope: Scope, loadId: string, traceIds: string[], transaction: Transaction): Promise<void> {
+  /**
+   * Makes exactly `traceIds` the traces linked to the load. A linked trace moves to the load's circuit and site
+   * too, so a trace never names a load on another circuit (unlinked traces keep their circuit).
+   */
+  async function linkTraces(
+    scope: Scope,
+    load: { id: string; circuitId: string; siteId: string },
+    traceIds: string[],
+    transaction: Transaction,
+  ): Promise<void> {
     const org = scope.organisationId;
     await Trace.update(
       { loadId: null },
-      { where: { organisationId: org, loadId, ...(traceIds.length ? { id: { [Op.notIn]: traceIds } } : {}) }, transaction },
+      { where: { organisationId: org, loadId: load.id, ...(traceIds.length ? { id: { [Op.notIn]: traceIds } } : {}) }, transaction },
     );
     if (traceIds.length > 0) {
-      await Trace.update({ loadId }, { where: { organisationId: org, id: { [Op.in]: traceIds } }, transaction });
+      await Trace.update(
+        { loadId: load.id, circuitId: load.circuitId, siteId: load.siteId },
+        { where: { organisationId: org, id: { [Op.in]: traceIds } }, transaction },
+      );
     }
   }
 
@@ -173,7 +184,7 @@ export function createLoadsService(db: Db, circuits: CircuitsService) {
           },
           { transaction },
         );
-        if (traceIds.length > 0) await linkTraces(scope, id, traceIds, transaction);
+        if (traceIds.length > 0) await linkTraces(scope, { id, circuitId, siteId: circuit.siteId }, traceIds, transaction);
         return created;
       });
       return view(scope, load);
@@ -190,7 +201,7 @@ export function createLoadsService(db: Db, circuits: CircuitsService) {
       await db.sequelize.transaction(async (transaction) => {
         if (patch.traceIds !== undefined) {
           if (patch.traceIds.length > 0) await assertTracesExist(scope, patch.traceIds, transaction);
-          await linkTraces(scope, id, patch.traceIds, transaction);
+          await linkTraces(scope, { id, circuitId: load.circuitId, siteId: circuit.siteId }, patch.traceIds, transaction);
         }
         await load.update(patchColumns(patch), { transaction });
       });

@@ -6,7 +6,7 @@ import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 
 const counter = { label: 'Counter', nominalVoltageV: 120, mainsHz: 60, deviceRatingA: 20, deviceKind: 'na-thermal-magnetic', conductorSize: '12 AWG', conductorMaterial: 'cu' };
 // Trace rows are written directly: these tests are about the links, not the samples.
-const clamp = JSON.parse('{ "inputUnit": "A", "sensitivityPerA": 1, "loops": 1 }') as Trace['probe'];
+const clamp: Trace['probe'] = { inputUnit: 'A', sensitivityPerA: 1, loops: 1 };
 const mixer = { name: 'Stand mixer', nameplateA: 9.5, connection: 'cord-and-plug', motorHp: 0.5, lockedRotorCode: 'j' };
 
 describe('/api/v1 loads', () => {
@@ -78,6 +78,10 @@ describe('/api/v1 loads', () => {
     }
     const { body: load } = await request(t.app).post(`/api/v1/circuits/${circuitId}/loads`).set(await t.auth()).send({ name: 'Recorded', connection: 'cord-and-plug', traceIds });
     expect(load.traceIds.sort()).toEqual([...traceIds].sort());
+    // a linked trace follows its load's circuit and site
+    const linked = await t.db.models.Trace.findByPk(traceIds[0]!);
+    expect(linked).toMatchObject({ loadId: load.id, circuitId });
+    expect(linked?.siteId).toBe((await request(t.app).get(`/api/v1/circuits/${circuitId}`).set(await t.auth())).body.siteId);
     const unlink = await request(t.app).patch(`/api/v1/loads/${load.id}`).set(await t.auth()).send({ traceIds: [traceIds[0]] });
     expect(unlink.body.traceIds).toEqual([traceIds[0]]);
     expect((await t.db.models.Trace.findByPk(traceIds[1]!))?.loadId).toBeNull();
