@@ -62,6 +62,7 @@ export function parseJsonNumber(buf: Uint8Array, start: number, end: number): nu
     i++;
   }
   if (i >= end) return Number.NaN;
+  const digitsStart = i;
   let mantissa = 0;
   let significant = 0;
   let fractionDigits = 0;
@@ -107,7 +108,7 @@ export function parseJsonNumber(buf: Uint8Array, start: number, end: number): nu
   if (significant <= 15 && power >= -22 && power <= 22) {
     value = power < 0 ? mantissa / (POW10[-power] as number) : mantissa * (POW10[power] as number);
   } else {
-    value = Number(Buffer.from(buf.buffer, buf.byteOffset + start, end - start).toString('latin1'));
+    value = Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, end - digitsStart).toString('latin1'));
   }
   return negative ? -value : value;
 }

@@ -140,7 +140,10 @@ export class TimestampReader {
     if (this.format === undefined || this.format === 'epoch-ms' || this.format === 'epoch-s' || this.format === 'seconds') {
       const n = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(text) ? Number(text) : Number.NaN;
       if (!Number.isNaN(n)) return this.fromNumber(n);
-      if (this.format !== undefined) throw new TimestampError(`expected ${describe(this.format)}, got "${raw}"`);
+      if (this.format !== undefined) {
+        if (this.fixed) throw new TimestampError(`expected ${describe(this.format)}, got "${raw}"`);
+        this.settle(detectTextFormat(text)); // a text date-time after numbers: mixed formats
+      }
     }
     if (this.format === undefined) this.settle(detectTextFormat(text));
     const format = this.format as TimeFormat;

@@ -41,8 +41,9 @@ export class TraceChunk extends Model<InferAttributes<TraceChunk>, InferCreation
   declare longestGapEndS: number | null;
 
   static initModel(sequelize: Sequelize) {
-    const real = { type: DataTypes.DOUBLE, allowNull: false };
-    const optionalReal = { type: DataTypes.DOUBLE, allowNull: true };
+    // Fresh objects per attribute: Sequelize writes into attribute definitions.
+    const real = () => ({ type: DataTypes.DOUBLE, allowNull: false });
+    const optionalReal = () => ({ type: DataTypes.DOUBLE, allowNull: true });
     return TraceChunk.init(
       {
         traceId: { type: DataTypes.STRING(36), primaryKey: true },
@@ -50,28 +51,28 @@ export class TraceChunk extends Model<InferAttributes<TraceChunk>, InferCreation
         organisationId: { type: DataTypes.STRING(36), allowNull: false },
         encoding: { type: DataTypes.STRING(10), allowNull: false },
         count: { type: DataTypes.INTEGER, allowNull: false },
-        firstUs: real,
-        lastUs: real,
-        runStartUs: optionalReal,
+        firstUs: real(),
+        lastUs: real(),
+        runStartUs: optionalReal(),
         runOffset: { type: DataTypes.INTEGER, allowNull: true },
-        rateHz: optionalReal,
-        mean: real,
-        m2: real,
-        minValue: real,
-        minTimeS: real,
-        maxValue: real,
-        maxTimeS: real,
-        firstTimeS: real,
-        firstValue: real,
-        lastTimeS: real,
-        lastValue: real,
-        coveredTimeS: real,
-        integral: real,
-        integral2: real,
+        rateHz: optionalReal(),
+        mean: real(),
+        m2: real(),
+        minValue: real(),
+        minTimeS: real(),
+        maxValue: real(),
+        maxTimeS: real(),
+        firstTimeS: real(),
+        firstValue: real(),
+        lastTimeS: real(),
+        lastValue: real(),
+        coveredTimeS: real(),
+        integral: real(),
+        integral2: real(),
         gapCount: { type: DataTypes.INTEGER, allowNull: false },
-        gapTimeS: real,
-        longestGapStartS: optionalReal,
-        longestGapEndS: optionalReal,
+        gapTimeS: real(),
+        longestGapStartS: optionalReal(),
+        longestGapEndS: optionalReal(),
       },
       { sequelize, tableName: 'trace_chunks', timestamps: false },
     );

@@ -17,9 +17,8 @@ import { readJsonSamples } from '../ingest/json-samples.js';
 import { readNdjsonSamples } from '../ingest/ndjson-samples.js';
 import type { UniformStart } from '../ingest/sample-sink.js';
 import { TimestampReader, parseInstantUs, parseUtcOffset, type TimeFormat } from '../ingest/timestamps.js';
-import { BatchWriter, type BatchResult } from '../storage/batch-writer.js';
+import { startBatch, type BatchResult, type BatchWriter } from '../storage/batch-writer.js';
 import type { ChunkStore } from '../storage/chunk-store.js';
-import { DEFAULT_GAP_FACTOR } from '../analysis/time/typical-spacing.js';
 import { presentAnalysis } from './analysis-view.js';
 import type { TraceCloser } from './traces-close.js';
 import { isDuplicateKeyError, idempotencyContext, type IdempotencyContext, type IdempotencyStore, type Replay } from './traces-idempotency.js';
@@ -115,18 +114,7 @@ export function createTraceIngest(deps: IngestDeps) {
       await store.discardPending(trace.id, trace.chunkCount);
       cleared.add(trace.id);
     }
-    const last =
-      trace.chunkCount > 0 && trace.lastSampleUs !== null
-        ? ((await store.readSummaries(trace.id, trace.chunkCount, trace.lastSampleUs, trace.lastSampleUs)).at(-1) ?? null)
-        : null;
-    return new BatchWriter({
-      traceId: trace.id,
-      organisationId: trace.organisationId,
-      store,
-      state: storageState(trace),
-      lastChunk: last,
-      defaultGapThresholdS: trace.sampleRateHz ? DEFAULT_GAP_FACTOR / trace.sampleRateHz : null,
-    });
+    return startBatch({ traceId: trace.id, organisationId: trace.organisationId, store, state: storageState(trace), sampleRateHz: trace.sampleRateHz });
   }
 
   function timestampReader(trace: Trace, options: SampleReadOptions, csv: boolean): TimestampReader {

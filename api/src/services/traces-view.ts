@@ -41,20 +41,21 @@ export function originMs(trace: Trace): number {
   return (trace.originUs ?? 0) / 1000;
 }
 
-export const msOf = (us: number | null): number | null => (us === null ? null : us / 1000);
+export const msOf = (us: number | null | undefined): number | null => (us === null || us === undefined ? null : us / 1000);
 
 export function storedTrace(trace: Trace): StoredTrace {
-  return { traceId: trace.id, chunkCount: trace.chunkCount, originUs: trace.originUs, gapThresholdS: trace.gapThresholdS };
+  return { traceId: trace.id, chunkCount: trace.chunkCount ?? 0, originUs: trace.originUs ?? null, gapThresholdS: trace.gapThresholdS ?? null };
 }
 
 export function storageState(trace: Trace): TraceStorageState {
   return {
-    sampleCount: trace.sampleCount,
-    chunkCount: trace.chunkCount,
-    originUs: trace.originUs,
-    firstSampleUs: trace.firstSampleUs,
-    lastSampleUs: trace.lastSampleUs,
-    gapThresholdS: trace.gapThresholdS,
+    // A freshly created instance leaves unset columns undefined.
+    sampleCount: trace.sampleCount ?? 0,
+    chunkCount: trace.chunkCount ?? 0,
+    originUs: trace.originUs ?? null,
+    firstSampleUs: trace.firstSampleUs ?? null,
+    lastSampleUs: trace.lastSampleUs ?? null,
+    gapThresholdS: trace.gapThresholdS ?? null,
     summary: (trace.summary as unknown as SampleSummary | null) ?? null,
   };
 }

@@ -173,8 +173,10 @@ export function createTracesService(db: Db, config: Config) {
       const conditions: WhereOptions[] = [where as WhereOptions];
       if (opts.q) {
         const like = db.dialect === 'postgres' ? Op.iLike : Op.like;
-        const pattern = `%${opts.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-        conditions.push({ [Op.or]: [{ name: { [like]: pattern } }, { notes: { [like]: pattern } }] });
+        // SQLite's LIKE has no escape character unless the statement names one, so name it for both.
+        const pattern = db.sequelize.literal(`${db.sequelize.escape(`%${opts.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`)} ESCAPE '\\'`);
+        const matches = (column: string) => db.sequelize.where(db.sequelize.col(column), like, pattern);
+        conditions.push({ [Op.or]: [matches('name'), matches('notes')] });
       }
       const total = await Trace.count({ where: { [Op.and]: conditions } });
       const sort = opts.sort ?? '-createdAt';

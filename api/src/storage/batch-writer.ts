@@ -371,3 +371,18 @@ export class BatchWriter {
     }
   }
 }
+
+/**
+ * A writer for the next batch of a trace: reads the trace's last chunk (to top it up or continue its
+ * run) and takes the default gap threshold from the trace's stated sample rate.
+ */
+export async function startBatch(
+  options: Omit<BatchWriterOptions, 'lastChunk' | 'defaultGapThresholdS'> & { sampleRateHz: number | null },
+): Promise<BatchWriter> {
+  const { state, store, sampleRateHz, ...rest } = options;
+  const last =
+    state.chunkCount > 0 && state.lastSampleUs !== null
+      ? ((await store.readSummaries(rest.traceId, state.chunkCount, state.lastSampleUs, state.lastSampleUs)).at(-1) ?? null)
+      : null;
+  return new BatchWriter({ ...rest, store, state, lastChunk: last, defaultGapThresholdS: sampleRateHz ? DEFAULT_GAP_FACTOR / sampleRateHz : null });
+}

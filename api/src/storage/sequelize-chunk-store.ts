@@ -8,6 +8,8 @@ import type { Db } from '../db/open.js';
 import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, StoredChunk } from './chunk-store.js';
 import { SUMMARY_COLUMNS, type ChunkSummaryRow } from './summary-rows.js';
 
+const finite = (t: number) => Math.max(-Number.MAX_VALUE, Math.min(Number.MAX_VALUE, t));
+
 export class SequelizeChunkStore implements ChunkStore {
   constructor(private readonly db: Db) {}
 
@@ -71,7 +73,8 @@ export class SequelizeChunkStore implements ChunkStore {
   async readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number): Promise<ChunkSummaryRow[]> {
     const rows = await this.db.models.TraceChunk.findAll({
       attributes: ['seq', ...SUMMARY_COLUMNS],
-      where: { traceId, seq: { [Op.lt]: chunkCount }, lastUs: { [Op.gte]: fromUs }, firstUs: { [Op.lte]: toUs } },
+      // ±Infinity does not survive every dialect's escaping; the largest finite double bounds every time.
+      where: { traceId, seq: { [Op.lt]: chunkCount }, lastUs: { [Op.gte]: finite(fromUs) }, firstUs: { [Op.lte]: finite(toUs) } },
       order: [['seq', 'ASC']],
       raw: true,
     });

@@ -1,0 +1,74 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { Problem } from '../errors/problem.js';
+import { parseJsonNumber, readJsonSamples } from './json-samples.js';
+import type { SampleSink } from './sample-sink.js';
+import { TimestampReader } from './timestamps.js';
+
+function collect(): SampleSink & { values: number[]; times: number[] } {
+  const sink = {
+    values: [] as number[],
+    times: [] as number[],
+    async pushExplicit(v: Float32Array, t: Float64Array) {
+      sink.values.push(...v);
+      sink.times.push(...t);
+    },
+    async pushUniform(v: Float32Array) {
+      sink.values.push(...v);
+    },
+  };
+  return sink;
+}
+
+async function* pieces(text: string, size: number) {
+  const buf = Buffer.from(text);
+  for (let i = 0; i < buf.length; i += size) yield buf.subarray(i, i + size);
+}
+
+const options = () => ({ timestamps: new TimestampReader({ traceStartUs: null }), defaultRateHz: null, defaultStart: null });
+
+describe('JSON sample bodies', () => {
+  it('when numbers are read from bytes, then they equal JSON.parse exactly', () => {
+    // source: ECMA-262 Number parsing (JSON.parse) is the reference; Clinger's fast path must agree bit for bit.
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (x) => {
+        const text = JSON.stringify(x);
+        const buf = Buffer.from(text);
+        expect(Object.is(parseJsonNumber(buf, 0, buf.length), JSON.parse(text))).toBe(true);
+      }),
+      { numRuns: 2000 },
+    );
+    for (const text of ['0.1', '-0.5', '1e22', '123456789012345', '1234567890123456789', '1.5e-7', '0.000123', '17e300']) {
+      const buf = Buffer.from(text);
+      expect(parseJsonNumber(buf, 0, buf.length)).toBe(Number(text));
+    }
+    for (const bad of ['01', '1.', '.5', '+1', '1e', '--1', '1x', '']) {
+      const buf = Buffer.from(bad);
+      expect(parseJsonNumber(buf, 0, buf.length)).toBeNaN();
+    }
+  });
+
+  it('when a body arrives in pieces of any size, then the same samples come out', async () => {
+    const body = JSON.stringify({ t: [1_700_000_000_000, '2023-11-14T22:13:20.5Z', 1_700_000_001_000], a: [1.5, -2, 3e-3] });
+    for (const size of [1, 2, 3, 7, 1000]) {
+      const sink = collect();
+      const err = (await readJsonSamples(pieces(body, size), options(), sink).catch((e: unknown) => e)) as Problem;
+      expect(err.errors?.[0]).toEqual({ detail: 'mixed timestamp formats: ISO 8601 date-times after epoch milliseconds', pointer: '/t/1' });
+    }
+    const good = JSON.stringify({ a: [1.5, -2, 3e-3], t: ['2023-11-14T22:13:20Z', '2023-11-14T22:13:20.5Z', '2023-11-14T22:13:21.000001Z'] });
+    for (const size of [1, 5, 1000]) {
+      const sink = collect();
+      expect(await readJsonSamples(pieces(good, size), options(), sink)).toBe(3);
+      expect(sink.times).toEqual([1_700_000_000_000_000, 1_700_000_000_500_000, 1_700_000_001_000_001]);
+      expect(sink.values).toEqual([1.5, -2, Math.fround(3e-3)]);
+    }
+  });
+
+  it('when the JSON is broken, then the problem names the line and column', async () => {
+    const body = '{\n  "t": [1700000000000, 1700000000100],\n  "a": [1, 2,]\n}';
+    const err = await readJsonSamples(pieces(body, 4), options(), collect()).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(Problem);
+    expect((err as Problem).type).toBe('malformed-body');
+    expect((err as Problem).errors).toEqual([{ detail: 'expected a value after ","', line: 3, column: 14 }]);
+  });
+});
