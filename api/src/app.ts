@@ -79,6 +79,11 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   app.use('/api/docs', swaggerUi.serve, swaggerUi.setup(document, { customSiteTitle: 'Headroom API' }));
 
   const v1 = express.Router();
+  // Answers carry sessions, API key secrets and private data: no browser or proxy may keep them.
+  v1.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   const limits = rateLimits(config);
   v1.use(limits.perAddress);
   // Account routes take small bodies; a body parsed here is not parsed again below.
