@@ -3,7 +3,7 @@ import type { AddressInfo } from 'node:net';
 import { afterEach, describe, expect, it } from 'vitest';
 import { createClient, unwrap } from './client.js';
 import { HeadroomConnectionError, HeadroomServerError, parseRetryAfter } from './errors.js';
-import { backoffDelayMs, DEFAULT_RETRY, resolveRetry, retryDelayMs, retryingFetch } from './retry.js';
+import { backoffDelayMs, DEFAULT_RETRY, resolveRetry, retryDelayMs, retryingFetch, withRetries } from './retry.js';
 
 /** One scripted answer per request: a status (with headers) or a dropped connection. */
 type Step = { status: number; headers?: Record<string, string>; body?: unknown } | 'drop' | 'hang';
@@ -75,19 +75,19 @@ describe('retry decision', () => {
   const answer = (status: number, headers: Record<string, string> = {}) => ({ response: new Response(null, { status, headers }) });
 
   it.each([
-    ['a network error on GET', { error: new TypeError('fetch failed') }, base, true],
-    ['503 on GET', answer(503), base, true],
-    ['500, 502, 504', answer(502), base, true],
-    ['400', answer(400), base, false],
-    ['404', answer(404), base, false],
-    ['a conflict without Retry-After (final)', answer(409), base, false],
-    ['a conflict with Retry-After (transient)', answer(409, { 'Retry-After': '1' }), base, true],
-    ['a network error on POST without an Idempotency-Key', { error: new TypeError('fetch failed') }, { ...base, method: 'POST' }, false],
-    ['503 on PATCH without an Idempotency-Key', answer(503), { ...base, method: 'PATCH' }, false],
-    ['a network error on POST with an Idempotency-Key', { error: new TypeError('fetch failed') }, { ...base, method: 'POST', hasIdempotencyKey: true }, true],
-    ['retries used up', answer(503), { ...base, retriesDone: 2 }, false],
-    ['the caller aborted', { error: new TypeError('aborted') }, { ...base, callerAborted: true }, false],
-  ])('when %s, then retried is %s', (_name, outcome, context, retried) => {
+    ['a network error on GET', true, { error: new TypeError('fetch failed') }, base],
+    ['503 on GET', true, answer(503), base],
+    ['500, 502, 504', true, answer(502), base],
+    ['400', false, answer(400), base],
+    ['404', false, answer(404), base],
+    ['a conflict without Retry-After (final)', false, answer(409), base],
+    ['a conflict with Retry-After (transient)', true, answer(409, { 'Retry-After': '1' }), base],
+    ['a network error on POST without an Idempotency-Key', false, { error: new TypeError('fetch failed') }, { ...base, method: 'POST' }],
+    ['503 on PATCH without an Idempotency-Key', false, answer(503), { ...base, method: 'PATCH' }],
+    ['a network error on POST with an Idempotency-Key', true, { error: new TypeError('fetch failed') }, { ...base, method: 'POST', hasIdempotencyKey: true }],
+    ['retries used up', false, answer(503), { ...base, retriesDone: 2 }],
+    ['the caller aborted', false, { error: new TypeError('aborted') }, { ...base, callerAborted: true }],
+  ])('when %s, then retried is %s', (_name, retried, outcome, context) => {
     expect(retryDelayMs(outcome, context) !== undefined).toBe(retried);
   });
 
@@ -180,5 +180,32 @@ describe('retrying client against a scripted server on 127.0.0.1', () => {
     setTimeout(() => controller.abort(), 100);
     await expect(call).rejects.toMatchObject({ name: 'AbortError' });
     expect(requests).toHaveLength(1);
+  });
+});
+
+describe('attempt timeout counts time without progress', () => {
+  const options = { ...DEFAULT_RETRY, maxRetries: 1, initialDelayMs: 1, maxDelayMs: 1, attemptTimeoutMs: 200 };
+
+  /** An attempt that reports progress every `everyMs` for `forMs`, then answers 200 (or fails if aborted first). */
+  const slowAttempt = (everyMs: number | null, forMs: number) => (signal: AbortSignal, progressed: () => void) =>
+    new Promise<Response>((resolve, reject) => {
+      const ticker = everyMs === null ? undefined : setInterval(progressed, everyMs);
+      const done = setTimeout(() => (clearInterval(ticker), resolve(new Response('ok'))), forMs);
+      signal.addEventListener('abort', () => (clearInterval(ticker), clearTimeout(done), reject(signal.reason)), { once: true });
+    });
+
+  it('when an upload keeps making progress for longer than the timeout, then it is not cut off', async () => {
+    let attempts = 0;
+    const response = await withRetries((signal, progressed) => (attempts++, slowAttempt(40, 700)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, options });
+    expect(response.status).toBe(200);
+    expect(attempts).toBe(1);
+  });
+
+  it('when an attempt stalls, then it is abandoned after the timeout and retried', async () => {
+    let attempts = 0;
+    const error = await withRetries((signal, progressed) => (attempts++, slowAttempt(null, 10_000)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, options }).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(HeadroomConnectionError);
+    expect((error as Error).message).toMatch(/no progress within 200 ms.* after 2 attempts/);
+    expect(attempts).toBe(2);
   });
 });

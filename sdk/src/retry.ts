@@ -13,7 +13,11 @@ export interface RetryOptions {
   maxDelayMs?: number;
   /** A `Retry-After` longer than this (ms) is not waited for: the call fails at once. Default 60000. */
   maxRetryAfterMs?: number;
-  /** Time allowed for one attempt to get the response headers, in ms (0: no limit). Default 120000. */
+  /**
+   * Time one attempt may go without progress, in ms (0: no limit). Default 120000. For ordinary calls
+   * it runs until the response headers; for uploads every piece of the body the network takes restarts
+   * it, so a large upload is limited only while it stalls.
+   */
   attemptTimeoutMs?: number;
 }
 
@@ -97,8 +101,11 @@ export function sleep(ms: number, signal?: AbortSignal | null): Promise<void> {
   });
 }
 
-/** One attempt: sends the request with this signal (the caller's, plus the attempt timeout). */
-export type Attempt = (signal: AbortSignal) => Promise<Response>;
+/**
+ * One attempt: sends the request with this signal (the caller's, plus the attempt timeout); calls
+ * `progressed()` whenever it makes progress (bytes of the body sent) to restart the timeout.
+ */
+export type Attempt = (signal: AbortSignal, progressed: () => void) => Promise<Response>;
 
 export interface RetryContext {
   method: string;
@@ -123,13 +130,19 @@ export async function withRetries(attempt: Attempt, context: RetryContext): Prom
     context.signal?.addEventListener('abort', forwardAbort, { once: true });
     const timeoutMs = context.options.attemptTimeoutMs;
     let timedOut = false;
-    const timer = timeoutMs > 0 ? setTimeout(() => ((timedOut = true), controller.abort(new DOMException('attempt timed out', 'TimeoutError'))), timeoutMs) : undefined;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const arm = () => {
+      if (timeoutMs <= 0 || controller.signal.aborted) return;
+      clearTimeout(timer);
+      timer = setTimeout(() => ((timedOut = true), controller.abort(new DOMException('attempt timed out', 'TimeoutError'))), timeoutMs);
+    };
+    arm();
     let outcome: AttemptOutcome;
     try {
-      outcome = { response: await attempt(controller.signal) };
+      outcome = { response: await attempt(controller.signal, arm) };
     } catch (error) {
       if (context.signal?.aborted) throw abortError(context.signal);
-      outcome = { error: timedOut ? new Error(`no answer within ${timeoutMs} ms`, { cause: error }) : error };
+      outcome = { error: timedOut ? new Error(`no progress within ${timeoutMs} ms`, { cause: error }) : error };
     } finally {
       // The timeout covers the wait for the headers only: a long download is not cut off.
       clearTimeout(timer);

@@ -22,7 +22,7 @@ export interface SendOptions {
   /**
    * Byte progress of the body. In browsers it comes from XMLHttpRequest's upload events (bytes sent on
    * the wire); in Node from a streamed body (bytes handed to the socket; the last ones may still be in
-   * flight). On a retry it starts again from 0.
+   * flight). On a retry it starts again from 0. Either way each piece sent restarts the attempt timeout.
    */
   onProgress?: (progress: UploadProgress) => void;
   /** Sent as `Idempotency-Key`; a new random key when omitted. Kept the same across retries. */
@@ -91,21 +91,24 @@ function sendWithXhr(url: string, method: string, headers: Headers, blob: Blob, 
 
 /**
  * Sends a body that can be replayed (a Blob, bytes or text), with byte progress when asked, an
- * Idempotency-Key, and the client's retry policy. Resolves with the successful Response; a failed
+ * Idempotency-Key, and the client's retry policy (the attempt timeout counts time without progress). Resolves with the successful Response; a failed
  * status rejects with the typed error carrying the problem body.
  */
 export async function sendBody(context: ClientContext, options: SendOptions): Promise<Response> {
   const blob = asBlob(options.body);
   const url = buildUrl(context, options.path, options.query);
   const headers = new Headers({ ...options.headers, ...bearerHeader(context.token), 'Idempotency-Key': options.idempotencyKey ?? newIdempotencyKey() });
-  const onProgress = options.onProgress;
-  const useXhr = onProgress !== undefined && typeof XMLHttpRequest !== 'undefined';
+  const report = (p: UploadProgress) => options.onProgress?.(p);
   const response = await withRetries(
-    (signal) => {
-      onProgress?.({ loadedBytes: 0, totalBytes: blob.size });
-      if (useXhr) return sendWithXhr(url, options.method, headers, blob, signal, onProgress);
-      if (!onProgress) return context.fetch(url, { method: options.method, headers, body: blob, signal });
-      // A streamed body lets Node count the bytes; `duplex: 'half'` is required for stream bodies.
+    (signal, progressed) => {
+      report({ loadedBytes: 0, totalBytes: blob.size });
+      const onProgress = (p: UploadProgress) => {
+        progressed();
+        report(p);
+      };
+      // The body goes out in pieces we can see (XMLHttpRequest upload events in browsers, a pulled stream
+      // in Node), so that progress is reported and a stalled upload, not a long one, times out.
+      if (typeof XMLHttpRequest !== 'undefined') return sendWithXhr(url, options.method, headers, blob, signal, onProgress);
       const init: RequestInit & { duplex: 'half' } = { method: options.method, headers, body: countingStream(blob, onProgress), signal, duplex: 'half' };
       return context.fetch(url, init);
     },
