@@ -7,7 +7,10 @@ import type { Scope } from '../auth/scope.js';
  * so the check depends on the contract, not on how samples are stored. Times are epoch milliseconds.
  */
 export interface TraceReader {
-  get(scope: Scope, id: string): Promise<{ id: string; name: string; kind: 'rms' | 'waveform'; sampleCount: number }>;
+  get(
+    scope: Scope,
+    id: string,
+  ): Promise<{ id: string; name: string; kind: 'rms' | 'waveform'; sampleCount: number; sampleRateHz: number | null }>;
   stats(
     scope: Scope,
     id: string,
@@ -91,14 +94,18 @@ export function dutyProfileFromSeries(
   return { timesS: Float64Array.from(times, (t) => (t - t0) / 1000), currentA: Float64Array.from(amps) };
 }
 
-/** A recorded inrush as a start-up event for the check (durations that are unknown are left out). */
-function toStartUpEvent(e: RecordedInrush): StartUpEvent {
+/**
+ * A recorded inrush as a start-up event for the check. An event that settled within one logger interval has
+ * no measured length (duration and I²t 0): it is taken to last that interval, the span its RMS reading covers.
+ */
+function toStartUpEvent(e: RecordedInrush, intervalS: number | null): StartUpEvent {
+  const measured = e.durationS > 0 || e.i2tA2s > 0 || (e.settleTimeS ?? 0) > 0;
   return {
     peakA: e.peakA,
     timeToPeakS: e.timeToPeakS,
-    durationS: e.durationS,
-    i2tA2s: e.i2tA2s,
-    ...(e.settleTimeS === null ? {} : { settleTimeS: e.settleTimeS }),
+    durationS: measured || intervalS === null ? e.durationS : intervalS,
+    ...(measured ? { i2tA2s: e.i2tA2s } : {}),
+    ...(e.settleTimeS === null || !measured ? {} : { settleTimeS: e.settleTimeS }),
   };
 }
 
@@ -108,7 +115,8 @@ function toStartUpEvent(e: RecordedInrush): StartUpEvent {
  *   level the load settles to when it works; with no start recorded (the load ran throughout), the median
  *   (p50) of an `rms` trace, or the RMS of a `waveform` trace; the highest over the load's traces;
  * - start-up: every recorded inrush (peak, duration, I²t), on the logger's own RMS interval for `rms` traces
- *   (`sample-rms`) or the half-cycle RMS for `waveform` traces;
+ *   (`sample-rms`) or the half-cycle RMS for `waveform` traces; one that settled within a logger interval is taken
+ *   to last that interval;
  * - duty (thermal check): the bucket means of the longest trace over {@link DUTY_PROFILE_POINTS} buckets;
  * - surges while running are listed (their heat is in the duty).
  * Null when no linked trace has samples (the nameplate is used instead).
@@ -122,11 +130,19 @@ export async function figuresFromTraces(
   const traces = (await Promise.all(traceIds.map((id) => reader.get(scope, id)))).filter((t) => t.sampleCount > 0);
   if (traces.length === 0) return null;
   const inrushEvents: TraceFigures['inrushEvents'] = [];
+  const startEvents: StartUpEvent[] = [];
   const surges: TraceFigures['surges'] = [];
   const running: Array<{ amps: number; basis: string }> = [];
   for (const trace of traces) {
     const events = await reader.events(scope, trace.id);
     inrushEvents.push(...events.inrushEvents.map((e) => ({ ...e, traceId: trace.id })));
+    const intervalS = trace.kind === 'rms' && trace.sampleRateHz ? 1 / trace.sampleRateHz : null;
+    startEvents.push(
+      ...events.inrushEvents
+        .filter((e) => e.peakA > 0)
+        .map((e) => toStartUpEvent(e, intervalS))
+        .filter((e) => (e.durationS ?? 0) > 0 || (e.i2tA2s ?? 0) > 0 || (e.settleTimeS ?? 0) > 0),
+    );
     surges.push(...events.surges.map((s) => ({ ...s, traceId: trace.id })));
     if (events.inrushEvents.length > 0) {
       const steady = Math.max(...events.inrushEvents.map((e) => e.steadyA));
@@ -147,11 +163,7 @@ export async function figuresFromTraces(
   const top = running.reduce((a, b) => (b.amps > a.amps ? b : a));
 
   const basis = traces.every((t) => t.kind === 'waveform') ? 'half-cycle-rms' : 'sample-rms';
-  const startEvents = inrushEvents.filter(
-    (e) => e.peakA > 0 && (e.durationS > 0 || e.i2tA2s > 0 || (e.settleTimeS ?? 0) > 0),
-  );
-  const startUp: StartUpInput | null =
-    startEvents.length > 0 ? { kind: 'events', events: startEvents.map(toStartUpEvent), basis } : null;
+  const startUp: StartUpInput | null = startEvents.length > 0 ? { kind: 'events', events: startEvents, basis } : null;
 
   const longest = traces.reduce((a, b) => (b.sampleCount > a.sampleCount ? b : a));
   const duty = dutyProfileFromSeries(await reader.series(scope, longest.id, {}, DUTY_PROFILE_POINTS), longest.kind);
