@@ -7,6 +7,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES } from '../models/user.js';
+import { buildOpenApiDocument } from '../openapi/document.js';
 import { v1Routes } from '../routes/v1/index.js';
 import { makeTestApp, type TestApp } from '../testing/make-test-app.js';
 import { PERMISSIONS } from './permissions.js';
@@ -43,6 +44,18 @@ describe('permission matrix over every route', () => {
     for (const { spec } of v1Routes) {
       expect(Object.keys(PERMISSIONS), spec.operationId).toContain(spec.permission);
       expect(spec.permission === 'public', `${spec.operationId} public?`).toBe(PUBLIC_OPERATIONS.has(spec.operationId));
+    }
+  });
+
+  it('when the OpenAPI document is built, then each operation names its permission and accepts the matching credentials', () => {
+    const doc = buildOpenApiDocument() as unknown as { paths: Record<string, Record<string, { security: Array<Record<string, string[]>>; 'x-permission': string; description: string }>> };
+    for (const { spec } of v1Routes) {
+      const op = doc.paths[spec.path]![spec.method]!;
+      expect(op['x-permission'], spec.operationId).toBe(spec.permission);
+      const rule = PERMISSIONS[spec.permission];
+      const expected = spec.permission === 'public' ? [] : rule.keyScopes.length ? [{ session: [] }, { apiKey: [...rule.keyScopes] }] : [{ session: [] }];
+      expect(op.security, spec.operationId).toEqual(expected);
+      if (spec.permission !== 'public') expect(op.description, spec.operationId).toContain(`Permission \`${spec.permission}\``);
     }
   });
 

@@ -23,6 +23,16 @@ function problemResponses(spec: RouteSpec): RouteConfig['responses'] {
   return r;
 }
 
+/**
+ * Which credentials an operation accepts: none for public routes, a session for permissions no API-key
+ * scope holds, otherwise a session or an API key with one of the listed scopes.
+ */
+function securityOf(spec: RouteSpec): Array<Record<string, string[]>> {
+  if (spec.permission === 'public') return [];
+  const keyScopes = [...PERMISSIONS[spec.permission].keyScopes];
+  return keyScopes.length ? [{ session: [] }, { apiKey: keyScopes }] : [{ session: [] }];
+}
+
 function toRouteConfig(spec: RouteSpec): RouteConfig {
   const responses: RouteConfig['responses'] = {};
   for (const [status, res] of Object.entries(spec.responses)) {
@@ -55,7 +65,7 @@ function toRouteConfig(spec: RouteSpec): RouteConfig {
     summary: spec.summary,
     description: [spec.description, who].filter(Boolean).join('\n\n'),
     tags: spec.tags,
-    ...(spec.permission === 'public' ? { security: [] } : {}),
+    security: securityOf(spec),
     'x-permission': spec.permission,
     request,
     responses: { ...problemResponses(spec), ...responses },
@@ -65,10 +75,17 @@ function toRouteConfig(spec: RouteSpec): RouteConfig {
 /** The OpenAPI 3.1 document for a set of routes (by default every /api/v1 route). */
 export function buildOpenApiDocument(routes: RouteDefinition[] = v1Routes) {
   const registry = new OpenAPIRegistry();
-  registry.registerComponent('securitySchemes', 'bearer', {
+  registry.registerComponent('securitySchemes', 'session', {
     type: 'http',
     scheme: 'bearer',
-    description: 'A session token from POST /auth/sign-in, or an API key (for integrators and the SDK).',
+    bearerFormat: 'hrs_…',
+    description: 'A session token from POST /auth/sign-in (12 hours from sign-in), as `Authorization: Bearer <token>`.',
+  });
+  registry.registerComponent('securitySchemes', 'apiKey', {
+    type: 'http',
+    scheme: 'bearer',
+    bearerFormat: 'hrk_<key id>_<secret>',
+    description: 'An API key made by an admin (POST /api-keys), as `Authorization: Bearer <key>`; the listed scopes are the key scopes that may call the operation.',
   });
   for (const { spec } of routes) registry.registerPath(toRouteConfig(spec));
   const generator = new OpenApiGeneratorV31(registry.definitions);
@@ -88,6 +105,6 @@ export function buildOpenApiDocument(routes: RouteDefinition[] = v1Routes) {
       ].join('\n'),
     },
     servers: [{ url: '/api/v1' }],
-    security: [{ bearer: [] }],
+    security: [{ session: [] }, { apiKey: [] }],
   });
 }
