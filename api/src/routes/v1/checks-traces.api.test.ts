@@ -1,8 +1,8 @@
 import { parse } from 'csv-parse/sync';
-import { PDFParse } from 'pdf-parse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+import { binaryBody, pdfText } from '../../testing/pdf-response.js';
 
 const T0 = Date.UTC(2026, 0, 5, 9, 0, 0);
 
@@ -73,18 +73,8 @@ describe('the headroom check on recorded traces', () => {
 
   it('when the report is made, then the recorded trace is plotted and its inrush listed, in the PDF and the CSV', async () => {
     const auth = await t.auth();
-    const pdf = await request(t.app)
-      .get(`/api/v1/circuits/${circuitId}/report`)
-      .set(auth)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
-    const parser = new PDFParse({ data: new Uint8Array(pdf.body as Buffer) });
-    const text = (await parser.getText()).text.replace(/\s+/g, ' ');
-    await parser.destroy();
+    const pdf = await request(t.app).get(`/api/v1/circuits/${circuitId}/report`).set(auth).buffer(true).parse(binaryBody);
+    const { text } = await pdfText(pdf.body as Buffer);
     expect(text).toContain('Recorded traces');
     expect(text).toContain('Mixer: Mixer, dough batch');
     expect(text).toContain('Recorded start-ups (inrush) and surges');

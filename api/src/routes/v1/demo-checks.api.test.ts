@@ -1,10 +1,10 @@
-import { PDFParse } from 'pdf-parse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CIRCUITS, DEMO_ORGANISATION, DEMO_SITES, rawReadings, seedDemo, type StoreDemoSamples } from '../../../../seeds/demo.js';
 import type { Scope } from '../../auth/scope.js';
 import { mintCredentials } from '../../testing/credentials.js';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+import { binaryBody, pdfText } from '../../testing/pdf-response.js';
 
 /**
  * The verdicts README "How Headroom judges a circuit" shows for the demo circuits, checked through the API on
@@ -58,19 +58,9 @@ describe('the demo circuits judged on their nameplates give the verdicts the REA
   });
 
   it('the hall\'s site report names both hall circuits with their verdicts', async () => {
-    const res = await request(t.app)
-      .get(`/api/v1/sites/${DEMO_SITES[0]!.id}/report`)
-      .set(auth)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const res = await request(t.app).get(`/api/v1/sites/${DEMO_SITES[0]!.id}/report`).set(auth).buffer(true).parse(binaryBody);
     expect(res.status).toBe(200);
-    const parser = new PDFParse({ data: new Uint8Array(res.body as Buffer) });
-    const text = (await parser.getText()).text.replace(/\s+/g, ' ');
-    await parser.destroy();
+    const { text } = await pdfText(res.body as Buffer);
     expect(text).toContain('Kitchen counter, left (K3)');
     expect(text).toContain('Verdict: Over the limit');
     expect(text).toContain('Walk-in cooler (K7)');

@@ -1,29 +1,11 @@
 import { randomUUID } from 'node:crypto';
 import { parse } from 'csv-parse/sync';
-import { PDFParse } from 'pdf-parse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+import { binaryBody, pdfText } from '../../testing/pdf-response.js';
 
 const counter = { label: 'Counter, left (K3)', nominalVoltageV: 120, mainsHz: 60, deviceRatingA: 20, deviceKind: 'na-thermal-magnetic', conductorSize: '14 AWG', conductorMaterial: 'cu' };
-
-/** Collects a binary response body as a Buffer. */
-function binary(res: request.Response, callback: (err: Error | null, body: Buffer) => void): void {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => callback(null, Buffer.concat(chunks)));
-}
-
-async function pdfText(body: Buffer): Promise<{ text: string; pages: number }> {
-  const parser = new PDFParse({ data: new Uint8Array(body) });
-  try {
-    const result = await parser.getText();
-    // Lines wrap anywhere in a paragraph: compare with single spaces.
-    return { text: result.text.replace(/\s+/g, ' '), pages: result.total };
-  } finally {
-    await parser.destroy();
-  }
-}
 
 describe('reports', () => {
   let t: TestApp;
@@ -47,7 +29,7 @@ describe('reports', () => {
   afterAll(() => t.close());
 
   it('when a circuit PDF is asked, then a parseable PDF carries the verdict, reasons with edition, loads, cautions, date and preparer', async () => {
-    const res = await request(t.app).get(`/api/v1/circuits/${circuitId}/report`).query({ format: 'pdf' }).set(await t.auth()).buffer(true).parse(binary);
+    const res = await request(t.app).get(`/api/v1/circuits/${circuitId}/report`).query({ format: 'pdf' }).set(await t.auth()).buffer(true).parse(binaryBody);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="headroom-counter-left-k3-\d{4}-\d{2}-\d{2}\.pdf"$/);
@@ -89,7 +71,7 @@ describe('reports', () => {
     const feeder = (await request(t.app).post(`/api/v1/sites/${siteId}/circuits`).set(auth).send({ label: 'Sub-board feeder', nominalVoltageV: 230, mainsHz: 50, deviceRatingA: 160, deviceKind: 'iec-c' })).body.id;
     await request(t.app).post(`/api/v1/circuits/${feeder}/loads`).set(auth).send({ name: 'Sub-board', nameplateA: 90, connection: 'fastened-in-place' }).expect(201);
     await request(t.app).post(`/api/v1/sites/${siteId}/circuits`).set(auth).send({ label: 'Spare way', nominalVoltageV: 120, mainsHz: 60, deviceRatingA: 15, deviceKind: 'na-thermal-magnetic' }).expect(201);
-    const res = await request(t.app).get(`/api/v1/sites/${siteId}/report`).set(auth).buffer(true).parse(binary);
+    const res = await request(t.app).get(`/api/v1/sites/${siteId}/report`).set(auth).buffer(true).parse(binaryBody);
     expect(res.status).toBe(200);
     const { text, pages } = await pdfText(res.body as Buffer);
     expect(text).toContain('Headroom site report: Millpond Café');
