@@ -4295,7 +4295,9 @@ export interface operations {
     checkCircuit: {
         parameters: {
             query?: {
+                /** @description Margin below a limit that counts as tight (default 0.1) */
                 tightFraction?: number | null;
+                /** @description Assumed locked-rotor time of a nameplate-only motor, s (default 1) */
                 assumedMotorStartS?: number;
             };
             header?: never;

@@ -18,9 +18,10 @@ const assumedMotorStartS = z
   .max(60)
   .openapi({ description: 'How long a motor known only by its nameplate draws its locked-rotor current, s (default 1)' });
 
-export const CheckQuery = z
-  .object({ tightFraction: z.coerce.number().min(0).lt(1).optional(), assumedMotorStartS: z.coerce.number().positive().max(60).optional() })
-  .strict();
+export const CheckQuery = z.object({
+  tightFraction: z.coerce.number().min(0).lt(1).optional().openapi({ description: 'Margin below a limit that counts as tight (default 0.1)' }),
+  assumedMotorStartS: z.coerce.number().positive().max(60).optional().openapi({ description: 'Assumed locked-rotor time of a nameplate-only motor, s (default 1)' }),
+});
 
 export const WhatIfLoad = z.object(LoadFigureFields).strict().openapi('WhatIfLoad');
 

@@ -1,10 +1,8 @@
 import { z } from './common.js';
 
-export const ReportQuery = z
-  .object({
-    format: z.enum(['pdf', 'csv']).default('pdf').openapi({ description: 'pdf (printable report) or csv (figures and events, one per row)' }),
-  })
-  .strict();
+export const ReportQuery = z.object({
+  format: z.enum(['pdf', 'csv']).default('pdf').openapi({ description: 'pdf (printable report) or csv (figures and events, one per row)' }),
+});
 
 export const ReportEmail = z
   .object({
