@@ -3,6 +3,6 @@ import { useState, type ReactNode } from 'react';
 import { createQueryClient } from '../lib/query-client';
 
 export function AppProvider({ children }: { children: ReactNode }) {
-  const [client] = useState(createQueryClient);
+  const [client] = useState(() => createQueryClient());
   return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
 }

@@ -26,8 +26,13 @@ export function formatDuration(seconds: number | null | undefined): string {
   const s = Math.abs(seconds);
   if (s < 1) return `${numberFormat(0).format(s * 1000)} ms`;
   if (s < 60) return `${numberFormat(s < 10 ? 2 : 1).format(s)} s`;
-  if (s < 3600) return `${Math.floor(s / 60)} min ${String(Math.round(s % 60)).padStart(2, '0')} s`;
-  return `${Math.floor(s / 3600)} h ${String(Math.round((s % 3600) / 60)).padStart(2, '0')} min`;
+  // Round first, so 239.95 s reads 4 min 00 s, not 3 min 60 s.
+  if (s < 3600 - 0.5) {
+    const whole = Math.round(s);
+    return `${Math.floor(whole / 60)} min ${String(whole % 60).padStart(2, '0')} s`;
+  }
+  const minutes = Math.round(s / 60);
+  return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
 }
 
 /** The browser's time zone as shown beside clock times: "Europe/Oslo (UTC+02:00)". */

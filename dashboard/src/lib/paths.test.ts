@@ -19,7 +19,16 @@ describe('safeNextPath', () => {
   });
 
   it('when next points at another origin or back to sign-in, then it falls back to the start', () => {
-    for (const bad of ['https://evil.test/', '//evil.test', '/\\evil.test', 'traces', '/sign-in?next=/x', null, undefined, '']) {
+    for (const bad of [
+      'https://evil.test/',
+      '//evil.test',
+      '/\\evil.test',
+      'traces',
+      '/sign-in?next=/x',
+      null,
+      undefined,
+      '',
+    ]) {
       expect(safeNextPath(bad)).toBe('/');
     }
   });

@@ -9,7 +9,10 @@ export const paths = {
     href: (next?: string) => (next && next !== '/' ? `/sign-in?next=${enc(next)}` : '/sign-in'),
   },
   acceptInvitation: { path: '/accept-invitation', href: (token: string) => `/accept-invitation?token=${enc(token)}` },
-  resetPassword: { path: '/reset-password', href: (token?: string) => (token ? `/reset-password?token=${enc(token)}` : '/reset-password') },
+  resetPassword: {
+    path: '/reset-password',
+    href: (token?: string) => (token ? `/reset-password?token=${enc(token)}` : '/reset-password'),
+  },
   traces: { path: '/traces', href: () => '/traces' },
   trace: { path: '/traces/:traceId', href: (traceId: string) => `/traces/${enc(traceId)}` },
   upload: { path: '/upload', href: () => '/upload' },

@@ -6,7 +6,8 @@ import { sessionStore, type SessionStore } from './session';
 export const isUnauthenticated = (error: unknown) => error instanceof HeadroomApiError && error.status === 401;
 
 /**
- * Client errors (4xx) are answers, not glitches: do not retry them. A 401 to a signed-in request means
+ * No retries here: the SDK already retries what is safe to retry (connection failures, 5xx, 429), and
+ * client errors (4xx) are answers, not glitches. A 401 to a signed-in request means
  * the session ended (expired, or signed out elsewhere): the session store is told, and the route guard
  * sends the user to sign in and back.
  */
@@ -20,7 +21,7 @@ export function createQueryClient(store: SessionStore = sessionStore) {
     defaultOptions: {
       queries: {
         staleTime: 15_000,
-        retry: (count, error) => !(error instanceof HeadroomApiError && error.status >= 400 && error.status < 500) && count < 2,
+        retry: false,
       },
     },
   });

@@ -51,7 +51,9 @@ describe('session store', () => {
     store.signIn(session());
     const client = createQueryClient(store);
     const problem = { type: '/problems/not-found', title: 'Not found', status: 404, detail: 'no' };
-    await client.fetchQuery({ queryKey: ['y'], queryFn: () => Promise.reject(new HeadroomApiError(problem)) }).catch(() => undefined);
+    await client
+      .fetchQuery({ queryKey: ['y'], queryFn: () => Promise.reject(new HeadroomApiError(problem)) })
+      .catch(() => undefined);
     expect(store.getToken()).toBe('tok-123');
   });
 });

@@ -5,15 +5,10 @@
  * `getSessionToken()` on every request.
  */
 import { useSyncExternalStore } from 'react';
+import type { components } from '@headroom/sdk';
 
-export type Role = 'admin' | 'engineer' | 'viewer';
-
-export interface SessionUser {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-}
+export type Role = components['schemas']['Role'];
+export type SessionUser = components['schemas']['UserSummary'];
 
 export interface Session {
   token: string;

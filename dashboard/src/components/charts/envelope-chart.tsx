@@ -58,7 +58,17 @@ const WINDOW_SETTLE_MS = 200;
  * fetch a finer envelope for it. Events are marked; limits are drawn as horizontal lines.
  */
 export function EnvelopeChart(props: EnvelopeChartProps) {
-  const { envelope, bounds, window: win, onWindowChange, events = [], limits = [], selectedEventId, onEventSelect, signed = false } = props;
+  const {
+    envelope,
+    bounds,
+    window: win,
+    onWindowChange,
+    events = [],
+    limits = [],
+    selectedEventId,
+    onEventSelect,
+    signed = false,
+  } = props;
   const settleTimer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   const onWindowChangeRef = useRef(onWindowChange);
   const onEventSelectRef = useRef(onEventSelect);
@@ -75,9 +85,31 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
   const data = useMemo(() => {
     const eventPoints = events.map((e) => ({ x: e.peakAtMs, y: e.peakA }));
     const datasets: ChartDataset<'line', XYPoint[]>[] = [
-      { label: 'Minimum', data: points.min, borderColor: chartColours.bandEdge, borderWidth: 0.75, pointRadius: 0, fill: false },
-      { label: 'Maximum', data: points.max, borderColor: chartColours.bandEdge, borderWidth: 0.75, pointRadius: 0, backgroundColor: chartColours.band, fill: '-1' },
-      { label: 'Mean', data: points.mean, borderColor: chartColours.mean, borderWidth: 1.5, pointRadius: 0, fill: false },
+      {
+        label: 'Minimum',
+        data: points.min,
+        borderColor: chartColours.bandEdge,
+        borderWidth: 0.75,
+        pointRadius: 0,
+        fill: false,
+      },
+      {
+        label: 'Maximum',
+        data: points.max,
+        borderColor: chartColours.bandEdge,
+        borderWidth: 0.75,
+        pointRadius: 0,
+        backgroundColor: chartColours.band,
+        fill: '-1',
+      },
+      {
+        label: 'Mean',
+        data: points.mean,
+        borderColor: chartColours.mean,
+        borderWidth: 1.5,
+        pointRadius: 0,
+        fill: false,
+      },
       {
         label: 'Events',
         data: eventPoints,
@@ -104,7 +136,15 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
         borderColor: colour,
         borderWidth: 1.5,
         borderDash: limit.tone === 'rating' ? [] : [6, 4],
-        label: { display: true, content: limit.label, position: 'end', backgroundColor: colour, color: '#fff', font: { size: 11, weight: 'bold' }, padding: 4 },
+        label: {
+          display: true,
+          content: limit.label,
+          position: 'end',
+          backgroundColor: colour,
+          color: '#fff',
+          font: { size: 11, weight: 'bold' },
+          padding: 4,
+        },
       };
     }
     for (const e of events) {
@@ -113,10 +153,19 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
         type: 'box',
         xMin: e.startMs,
         xMax: Math.max(e.endMs, e.startMs + 1),
-        backgroundColor: e.kind === 'inrush' ? `rgba(180, 83, 26, ${selected ? 0.22 : 0.1})` : `rgba(123, 79, 176, ${selected ? 0.22 : 0.08})`,
+        backgroundColor:
+          e.kind === 'inrush'
+            ? `rgba(180, 83, 26, ${selected ? 0.22 : 0.1})`
+            : `rgba(123, 79, 176, ${selected ? 0.22 : 0.08})`,
         borderWidth: selected ? 1 : 0,
         borderColor: e.kind === 'inrush' ? chartColours.inrush : chartColours.surge,
-        label: { display: e.kind === 'inrush', content: e.label, position: { x: 'start', y: 'start' }, color: chartColours.inrush, font: { size: 10, weight: 'bold' } },
+        label: {
+          display: e.kind === 'inrush',
+          content: e.label,
+          position: { x: 'start', y: 'start' },
+          color: chartColours.inrush,
+          font: { size: 10, weight: 'bold' },
+        },
       };
     }
     const allMax = Math.max(0, ...limits.map((l) => l.valueA * 1.08), ...events.map((e) => e.peakA * 1.05));
@@ -167,7 +216,13 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
             mode: 'x',
             wheel: { enabled: true, modifierKey: 'ctrl' },
             pinch: { enabled: true },
-            drag: { enabled: true, backgroundColor: 'rgba(242, 179, 61, 0.25)', borderColor: '#d99a22', borderWidth: 1, threshold: 6 },
+            drag: {
+              enabled: true,
+              backgroundColor: 'rgba(242, 179, 61, 0.25)',
+              borderColor: '#d99a22',
+              borderWidth: 1,
+              threshold: 6,
+            },
             onZoomComplete: ({ chart }) => reportWindow(chart),
           },
         },
@@ -182,7 +237,10 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
     function reportWindow(chart: ChartInstance) {
       const { min, max } = chart.scales.x!;
       clearTimeout(settleTimer.current);
-      settleTimer.current = setTimeout(() => onWindowChangeRef.current({ from: Math.round(min), to: Math.round(max) }), WINDOW_SETTLE_MS);
+      settleTimer.current = setTimeout(
+        () => onWindowChangeRef.current({ from: Math.round(min), to: Math.round(max) }),
+        WINDOW_SETTLE_MS,
+      );
     }
   }, [visible.from, visible.to, bounds.from, bounds.to, zone, limits, events, selectedEventId, signed, props.yLabel]);
 
@@ -193,7 +251,8 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
     <div className="space-y-2">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <p className="text-xs text-ink-500" id={`${props.name}-help`}>
-          Drag across the chart to zoom in · Shift-drag to pan · Ctrl + wheel to zoom · click a ▲ marker to select an event
+          Drag across the chart to zoom in · Shift-drag to pan · Ctrl + wheel to zoom · click a ▲ marker to select an
+          event
         </p>
         <div className="flex items-center gap-1" role="toolbar" aria-label="Chart zoom">
           {props.busy ? (
@@ -226,7 +285,9 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
           role="img"
           aria-label={`Current over time, ${formatClockMs(visible.from)} to ${formatClockMs(visible.to)} (${zone})`}
           aria-describedby={`${props.name}-help`}
-          fallbackContent={<p>Chart of current over time. The figures and the event table below give the same information.</p>}
+          fallbackContent={
+            <p>Chart of current over time. The figures and the event table below give the same information.</p>
+          }
         />
       </div>
       <Legend hasEvents={events.length > 0} limits={limits} />
@@ -238,7 +299,11 @@ function Legend({ hasEvents, limits }: { hasEvents: boolean; limits: ChartLimit[
   return (
     <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-700" aria-label="Chart legend">
       <li className="flex items-center gap-1.5">
-        <span className="inline-block h-3 w-5 rounded-sm" style={{ background: chartColours.band, border: `1px solid ${chartColours.bandEdge}` }} aria-hidden />
+        <span
+          className="inline-block h-3 w-5 rounded-sm"
+          style={{ background: chartColours.band, border: `1px solid ${chartColours.bandEdge}` }}
+          aria-hidden
+        />
         Min–max range
       </li>
       <li className="flex items-center gap-1.5">
@@ -265,7 +330,10 @@ function Legend({ hasEvents, limits }: { hasEvents: boolean; limits: ChartLimit[
         <li key={l.id} className="flex items-center gap-1.5">
           <span
             className="inline-block w-5 border-t-2"
-            style={{ borderColor: l.tone === 'rating' ? chartColours.rating : chartColours.limit80, borderStyle: l.tone === 'rating' ? 'solid' : 'dashed' }}
+            style={{
+              borderColor: l.tone === 'rating' ? chartColours.rating : chartColours.limit80,
+              borderStyle: l.tone === 'rating' ? 'solid' : 'dashed',
+            }}
             aria-hidden
           />
           {l.label}

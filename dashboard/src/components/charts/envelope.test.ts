@@ -4,7 +4,11 @@ import { envelopePoints, paddedWindow, stepWindow } from './envelope';
 describe('envelopePoints', () => {
   it('when a bucket has no samples, then its points are null so the line breaks at the gap', () => {
     const p = envelopePoints({ t: [0, 10, 20], min: [1, null, 2], max: [3, null, 4], mean: [2, NaN, 3] });
-    expect(p.mean).toEqual([{ x: 0, y: 2 }, { x: 10, y: null }, { x: 20, y: 3 }]);
+    expect(p.mean).toEqual([
+      { x: 0, y: 2 },
+      { x: 10, y: null },
+      { x: 20, y: 3 },
+    ]);
     expect(p.min[1]).toEqual({ x: 10, y: null });
   });
 

@@ -26,7 +26,9 @@ export interface EnvelopePoints {
 export function envelopePoints(series: EnvelopeSeries): EnvelopePoints {
   const n = series.t.length;
   if (series.min.length !== n || series.max.length !== n || series.mean.length !== n) {
-    throw new RangeError(`envelope arrays differ in length: t ${n}, min ${series.min.length}, max ${series.max.length}, mean ${series.mean.length}`);
+    throw new RangeError(
+      `envelope arrays differ in length: t ${n}, min ${series.min.length}, max ${series.max.length}, mean ${series.mean.length}`,
+    );
   }
   const min: XYPoint[] = new Array(n);
   const max: XYPoint[] = new Array(n);
@@ -61,7 +63,12 @@ export function paddedWindow(from: number, to: number, bounds: TimeWindow, minSp
 }
 
 /** The window after zooming by `factor` (< 1 zooms in) about its centre, or panning by `shift` spans, kept in bounds. */
-export function stepWindow(win: TimeWindow, bounds: TimeWindow, action: { zoom?: number; pan?: number }, minSpanMs = 50): TimeWindow {
+export function stepWindow(
+  win: TimeWindow,
+  bounds: TimeWindow,
+  action: { zoom?: number; pan?: number },
+  minSpanMs = 50,
+): TimeWindow {
   const fullSpan = bounds.to - bounds.from;
   let span = win.to - win.from;
   let centre = (win.from + win.to) / 2;

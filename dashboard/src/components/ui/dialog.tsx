@@ -11,12 +11,15 @@ export function Dialog({
   title,
   children,
   footer,
+  size = 'md',
 }: {
   open: boolean;
   onClose: () => void;
   title: string;
   children: ReactNode;
   footer?: ReactNode;
+  /** md for confirmations and short forms, lg for forms with columns. */
+  size?: 'md' | 'lg';
 }) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
@@ -35,7 +38,7 @@ export function Dialog({
         e.preventDefault();
         onClose();
       }}
-      className="m-auto w-[min(32rem,calc(100vw-2rem))] rounded-xl border border-ink-100 bg-white p-0 text-ink-950 shadow-2xl backdrop:bg-ink-950/50"
+      className={`m-auto ${size === 'lg' ? 'w-[min(48rem,calc(100vw-2rem))]' : 'w-[min(32rem,calc(100vw-2rem))]'} rounded-xl border border-ink-100 bg-white p-0 text-ink-950 shadow-2xl backdrop:bg-ink-950/50`}
     >
       {open ? (
         <div className="space-y-4 p-6">

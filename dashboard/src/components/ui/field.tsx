@@ -1,4 +1,10 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import {
+  useId,
+  type InputHTMLAttributes,
+  type ReactNode,
+  type SelectHTMLAttributes,
+  type TextareaHTMLAttributes,
+} from 'react';
 
 export const inputClass =
   'block w-full rounded-md border border-ink-300 bg-white px-3 py-2 text-sm text-ink-950 shadow-inner placeholder:text-ink-500 focus:border-ink-700 disabled:bg-ink-50 aria-[invalid=true]:border-verdict-over';
@@ -37,11 +43,23 @@ function describedBy(id: string, hint: unknown, error: unknown): string | undefi
   return ids.length ? ids.join(' ') : undefined;
 }
 
-export function TextField({ label, hint, error, className, ...props }: FieldFrame & InputHTMLAttributes<HTMLInputElement>) {
+export function TextField({
+  label,
+  hint,
+  error,
+  className,
+  ...props
+}: FieldFrame & InputHTMLAttributes<HTMLInputElement>) {
   const id = useId();
   return (
     <Frame id={id} label={label} hint={hint} error={error} className={className}>
-      <input id={id} className={inputClass} aria-invalid={error ? true : undefined} aria-describedby={describedBy(id, hint, error)} {...props} />
+      <input
+        id={id}
+        className={inputClass}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, hint, error)}
+        {...props}
+      />
     </Frame>
   );
 }
@@ -57,27 +75,56 @@ export function SelectField({
   const id = useId();
   return (
     <Frame id={id} label={label} hint={hint} error={error} className={className}>
-      <select id={id} className={inputClass} aria-invalid={error ? true : undefined} aria-describedby={describedBy(id, hint, error)} {...props}>
+      <select
+        id={id}
+        className={inputClass}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, hint, error)}
+        {...props}
+      >
         {children}
       </select>
     </Frame>
   );
 }
 
-export function TextAreaField({ label, hint, error, className, ...props }: FieldFrame & TextareaHTMLAttributes<HTMLTextAreaElement>) {
+export function TextAreaField({
+  label,
+  hint,
+  error,
+  className,
+  ...props
+}: FieldFrame & TextareaHTMLAttributes<HTMLTextAreaElement>) {
   const id = useId();
   return (
     <Frame id={id} label={label} hint={hint} error={error} className={className}>
-      <textarea id={id} className={inputClass} aria-invalid={error ? true : undefined} aria-describedby={describedBy(id, hint, error)} {...props} />
+      <textarea
+        id={id}
+        className={inputClass}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, hint, error)}
+        {...props}
+      />
     </Frame>
   );
 }
 
-export function CheckboxField({ label, hint, className = '', ...props }: Omit<FieldFrame, 'error'> & InputHTMLAttributes<HTMLInputElement>) {
+export function CheckboxField({
+  label,
+  hint,
+  className = '',
+  ...props
+}: Omit<FieldFrame, 'error'> & InputHTMLAttributes<HTMLInputElement>) {
   const id = useId();
   return (
     <div className={`flex items-start gap-2 ${className}`}>
-      <input id={id} type="checkbox" className="mt-0.5 h-4 w-4 accent-ink-800" aria-describedby={hint ? `${id}-hint` : undefined} {...props} />
+      <input
+        id={id}
+        type="checkbox"
+        className="mt-0.5 h-4 w-4 accent-ink-800"
+        aria-describedby={hint ? `${id}-hint` : undefined}
+        {...props}
+      />
       <div>
         <label htmlFor={id} className="text-sm font-medium text-ink-900">
           {label}

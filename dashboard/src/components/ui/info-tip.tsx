@@ -19,7 +19,7 @@ export function InfoTip({ label, children }: { label: string; children: ReactNod
       <span
         role="tooltip"
         id={id}
-        className="pointer-events-none invisible absolute bottom-full left-1/2 z-20 mb-2 w-64 -translate-x-1/2 rounded-md bg-ink-950 px-3 py-2 text-xs font-normal normal-case leading-snug tracking-normal text-ink-50 opacity-0 shadow-lg transition group-focus-within:visible group-focus-within:opacity-100 group-hover:visible group-hover:opacity-100"
+        className="pointer-events-none absolute bottom-full left-0 z-20 mb-2 hidden w-64 rounded-md bg-ink-950 px-3 py-2 text-xs font-normal normal-case leading-snug tracking-normal text-ink-50 shadow-lg group-focus-within:block group-hover:block"
       >
         {children}
       </span>

@@ -1,7 +1,19 @@
 import type { ReactNode } from 'react';
 
 /** The title row of a page: heading, a line of context, and the page's actions on the right. */
-export function PageHeader({ title, titleId, subtitle, actions, back }: { title: ReactNode; titleId: string; subtitle?: ReactNode; actions?: ReactNode; back?: ReactNode }) {
+export function PageHeader({
+  title,
+  titleId,
+  subtitle,
+  actions,
+  back,
+}: {
+  title: ReactNode;
+  titleId: string;
+  subtitle?: ReactNode;
+  actions?: ReactNode;
+  back?: ReactNode;
+}) {
   return (
     <div className="space-y-2">
       {back}
@@ -19,9 +31,24 @@ export function PageHeader({ title, titleId, subtitle, actions, back }: { title:
 }
 
 /** A white card with an optional heading. */
-export function Panel({ title, titleId, actions, children, className = '' }: { title?: ReactNode; titleId?: string; actions?: ReactNode; children: ReactNode; className?: string }) {
+export function Panel({
+  title,
+  titleId,
+  actions,
+  children,
+  className = '',
+}: {
+  title?: ReactNode;
+  titleId?: string;
+  actions?: ReactNode;
+  children: ReactNode;
+  className?: string;
+}) {
   return (
-    <section aria-labelledby={titleId} className={`rounded-xl border border-ink-100 bg-white p-4 shadow-sm ${className}`}>
+    <section
+      aria-labelledby={titleId}
+      className={`rounded-xl border border-ink-100 bg-white p-4 shadow-sm ${className}`}
+    >
       {title ? (
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
           <h2 id={titleId} className="text-base font-semibold text-ink-900">

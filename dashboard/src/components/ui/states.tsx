@@ -28,7 +28,15 @@ export function locateProblem(e: ProblemFieldError): string {
 }
 
 /** The title, detail and every field problem (with line numbers for files) of a failed request. */
-export function ErrorState({ error, onRetry, title: titleOverride }: { error: unknown; onRetry?: () => void; title?: string }) {
+export function ErrorState({
+  error,
+  onRetry,
+  title: titleOverride,
+}: {
+  error: unknown;
+  onRetry?: () => void;
+  title?: string;
+}) {
   const problem = error instanceof HeadroomApiError ? error.problem : undefined;
   const message = problem ? problem.detail : error instanceof Error ? error.message : String(error);
   const title = titleOverride ?? problem?.title ?? 'Something went wrong';
@@ -53,7 +61,11 @@ export function ErrorState({ error, onRetry, title: titleOverride }: { error: un
       ) : null}
       {problem?.requestId ? <p className="mt-2 text-xs text-ink-500">Request id {problem.requestId}</p> : null}
       {onRetry ? (
-        <button type="button" onClick={onRetry} className="mt-3 rounded bg-ink-800 px-3 py-1.5 text-white hover:bg-ink-700">
+        <button
+          type="button"
+          onClick={onRetry}
+          className="mt-3 rounded bg-ink-800 px-3 py-1.5 text-white hover:bg-ink-700"
+        >
           Try again
         </button>
       ) : null}

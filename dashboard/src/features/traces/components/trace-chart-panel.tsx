@@ -1,0 +1,112 @@
+import { useMemo, useState } from 'react';
+import { EnvelopeChart, type ChartEvent, type ChartLimit } from '../../../components/charts/envelope-chart';
+import type { TimeWindow } from '../../../components/charts/envelope';
+import { EmptyState, ErrorState, LoadingState } from '../../../components/ui/states';
+import { useTraceSeries } from '../api/trace-data';
+import type { Trace } from '../api/traces';
+import type { TraceEventRow } from './events-table';
+import { envelopeOf, type EnvelopeMode } from '../utils/envelope-of';
+
+/** Buckets asked for: about one per horizontal pixel of the chart at 1280 px (more buys nothing). */
+export const CHART_POINTS = 1200;
+
+type Mode = EnvelopeMode;
+
+/**
+ * The trace's chart: fetches the envelope of the visible window (a finer one after every zoom or pan) and
+ * draws it with the events and the circuit's limits. Waveform traces can switch between the half-cycle
+ * RMS series and the instantaneous values.
+ */
+export function TraceChartPanel({
+  trace,
+  window,
+  onWindowChange,
+  events,
+  selectedEventId,
+  onEventSelect,
+  limits,
+}: {
+  trace: Trace;
+  window: TimeWindow | null;
+  onWindowChange: (w: TimeWindow | null) => void;
+  events: TraceEventRow[];
+  selectedEventId: string | null;
+  onEventSelect: (id: string) => void;
+  limits: ChartLimit[];
+}) {
+  const [mode, setMode] = useState<Mode>(trace.kind === 'waveform' ? 'rms' : 'instantaneous');
+  const series = useTraceSeries(trace.id, window, CHART_POINTS, trace.sampleCount > 0);
+  const bounds = useMemo<TimeWindow | null>(
+    () =>
+      trace.firstSampleTime !== null && trace.lastSampleTime !== null
+        ? { from: trace.firstSampleTime, to: Math.max(trace.lastSampleTime, trace.firstSampleTime + 1) }
+        : null,
+    [trace.firstSampleTime, trace.lastSampleTime],
+  );
+  const chartEvents = useMemo<ChartEvent[]>(
+    () =>
+      events.map((e) => ({
+        id: e.id,
+        kind: e.kind,
+        startMs: e.startAt,
+        endMs: e.endAt,
+        peakAtMs: e.peakAt,
+        peakA: e.peakA,
+        label: e.label,
+      })),
+    [events],
+  );
+  const hasRms = Boolean(series.data?.rms);
+  const effectiveMode: Mode = mode === 'rms' && !hasRms ? 'instantaneous' : mode;
+  const envelope = useMemo(
+    () => (series.data ? envelopeOf(series.data, effectiveMode) : null),
+    [series.data, effectiveMode],
+  );
+
+  if (trace.sampleCount === 0 || !bounds)
+    return (
+      <EmptyState title="No samples yet">Samples appear here as soon as a device or an upload sends them.</EmptyState>
+    );
+  if (series.isPending) return <LoadingState label="Loading the chart…" />;
+  if (series.isError) return <ErrorState error={series.error} onRetry={() => void series.refetch()} />;
+
+  return (
+    <div className="space-y-2">
+      {trace.kind === 'waveform' ? (
+        <div className="flex items-center gap-2 text-sm" role="group" aria-label="Values shown">
+          {(['rms', 'instantaneous'] as const).map((m) => (
+            <button
+              key={m}
+              type="button"
+              aria-pressed={effectiveMode === m}
+              disabled={m === 'rms' && !hasRms}
+              onClick={() => setMode(m)}
+              className={`rounded-full px-3 py-1 text-xs font-medium ring-1 ring-inset disabled:opacity-50 ${effectiveMode === m ? 'bg-ink-800 text-white ring-ink-800' : 'bg-white text-ink-800 ring-ink-300'}`}
+            >
+              {m === 'rms' ? 'Half-cycle RMS' : 'Instantaneous'}
+            </button>
+          ))}
+          {!hasRms ? <span className="text-xs text-ink-500">RMS series available once the trace is closed</span> : null}
+        </div>
+      ) : null}
+      <EnvelopeChart
+        name="trace"
+        envelope={envelope!}
+        bounds={bounds}
+        window={window}
+        onWindowChange={onWindowChange}
+        events={chartEvents}
+        selectedEventId={selectedEventId}
+        onEventSelect={onEventSelect}
+        limits={limits}
+        signed={effectiveMode === 'instantaneous' && trace.kind === 'waveform'}
+        yLabel={effectiveMode === 'rms' && trace.kind === 'waveform' ? 'Current, half-cycle RMS (A)' : 'Current (A)'}
+        busy={series.isFetching}
+      />
+      <p className="text-xs text-ink-500">
+        {series.data.sampleCount.toLocaleString()} samples in view, drawn as {series.data.t.length.toLocaleString()}{' '}
+        buckets ({series.data.level === 'samples' ? 'every sample' : 'min, max and mean of each bucket'}).
+      </p>
+    </div>
+  );
+}
