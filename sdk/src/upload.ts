@@ -31,12 +31,18 @@ export interface SendOptions {
   signal?: AbortSignal;
 }
 
-const PROGRESS_CHUNK_BYTES = 64 * 1024;
+/** Size of the pieces an upload is handed to the network in (progress and stall detection see each). */
+const PIECE_BYTES = 256 * 1024;
 
-function asBlob(body: ReplayableBody): Blob {
-  if (body instanceof Blob) return body;
-  // Copy a view that does not cover its whole buffer, so the Blob holds exactly these bytes.
-  return new Blob([body instanceof Uint8Array ? new Uint8Array(body) : body]);
+/** Bytes stay bytes (sliced without copying); text becomes UTF-8 bytes; a Blob stays a Blob (a file is never read whole). */
+function asReplayable(body: ReplayableBody): Blob | Uint8Array {
+  if (body instanceof Blob || body instanceof Uint8Array) return body;
+  if (typeof body === 'string') return new TextEncoder().encode(body);
+  return new Uint8Array(body);
+}
+
+function sizeOf(body: Blob | Uint8Array): number {
+  return body instanceof Blob ? body.size : body.byteLength;
 }
 
 function buildUrl(context: ClientContext, path: string, query: SendOptions['query']): string {
@@ -46,20 +52,22 @@ function buildUrl(context: ClientContext, path: string, query: SendOptions['quer
   return `${context.apiUrl}${path}${search ? `?${search}` : ''}`;
 }
 
-/** A stream over the blob that reports each piece as the network takes it. */
-function countingStream(blob: Blob, onProgress: (p: UploadProgress) => void): ReadableStream<Uint8Array> {
+/** A stream over the body that reports each piece as the network takes it. */
+function countingStream(body: Blob | Uint8Array, onProgress: (p: UploadProgress) => void): ReadableStream<Uint8Array> {
+  const total = sizeOf(body);
   let offset = 0;
   return new ReadableStream<Uint8Array>({
     async pull(controller) {
-      if (offset >= blob.size) {
+      if (offset >= total) {
         controller.close();
         return;
       }
-      const end = Math.min(blob.size, offset + PROGRESS_CHUNK_BYTES);
-      const piece = new Uint8Array(await blob.slice(offset, end).arrayBuffer());
+      const end = Math.min(total, offset + PIECE_BYTES);
+      // A piece of bytes is a view (no copy); a piece of a Blob is read as it is needed.
+      const piece = body instanceof Uint8Array ? body.subarray(offset, end) : new Uint8Array(await body.slice(offset, end).arrayBuffer());
       offset = end;
       controller.enqueue(piece);
-      onProgress({ loadedBytes: offset, totalBytes: blob.size });
+      onProgress({ loadedBytes: offset, totalBytes: total });
     },
   });
 }
@@ -95,21 +103,22 @@ function sendWithXhr(url: string, method: string, headers: Headers, blob: Blob, 
  * status rejects with the typed error carrying the problem body.
  */
 export async function sendBody(context: ClientContext, options: SendOptions): Promise<Response> {
-  const blob = asBlob(options.body);
+  const body = asReplayable(options.body);
+  const totalBytes = sizeOf(body);
   const url = buildUrl(context, options.path, options.query);
   const headers = new Headers({ ...options.headers, ...bearerHeader(context.token), 'Idempotency-Key': options.idempotencyKey ?? newIdempotencyKey() });
   const report = (p: UploadProgress) => options.onProgress?.(p);
   const response = await withRetries(
     (signal, progressed) => {
-      report({ loadedBytes: 0, totalBytes: blob.size });
+      report({ loadedBytes: 0, totalBytes });
       const onProgress = (p: UploadProgress) => {
         progressed();
         report(p);
       };
       // The body goes out in pieces we can see (XMLHttpRequest upload events in browsers, a pulled stream
       // in Node), so that progress is reported and a stalled upload, not a long one, times out.
-      if (typeof XMLHttpRequest !== 'undefined') return sendWithXhr(url, options.method, headers, blob, signal, onProgress);
-      const init: RequestInit & { duplex: 'half' } = { method: options.method, headers, body: countingStream(blob, onProgress), signal, duplex: 'half' };
+      if (typeof XMLHttpRequest !== 'undefined') return sendWithXhr(url, options.method, headers, body instanceof Blob ? body : new Blob([body.slice()]), signal, onProgress);
+      const init: RequestInit & { duplex: 'half' } = { method: options.method, headers, body: countingStream(body, onProgress), signal, duplex: 'half' };
       return context.fetch(url, init);
     },
     { method: options.method, hasIdempotencyKey: true, options: resolveRetry(context.retry, options.retry), signal: options.signal ?? null },
