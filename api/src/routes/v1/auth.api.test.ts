@@ -1,6 +1,7 @@
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { hashSecret } from '../../auth/secrets.js';
 import type { ReceivedMail } from '../../mail/fake-smtp-server.js';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 
@@ -150,6 +151,17 @@ describe('/api/v1/auth, /me and /users', () => {
     expect((await signIn('temp@example.test')).status).toBe(200);
   });
 
+  it('when a session is past its expiry, then it is refused', async () => {
+    await userWithPassword('expiring@example.test');
+    const { token } = (await signIn('expiring@example.test')).body;
+    const session = { Authorization: `Bearer ${token}` };
+    expect((await request(t.app).get('/api/v1/me').set(session)).status).toBe(200);
+    await t.db.models.Session.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { tokenHash: hashSecret(token) } });
+    const res = await request(t.app).get('/api/v1/me').set(session);
+    expect(res.status).toBe(401);
+    expect(res.body.detail).toMatch(/expired/);
+  });
+
   it('when the role changes, then the next request uses the new role', async () => {
     const admin = await t.auth('admin');
     const user = await userWithPassword('promote@example.test', 'viewer');
@@ -212,5 +224,26 @@ describe('sign-in throttling', () => {
     const res = await request(t.app).post('/api/v1/auth/password-reset').send({ email: 'one-more@example.test' });
     expect(res.status).toBe(429);
     expect(res.headers['retry-after']).toBeDefined();
+  });
+});
+
+describe('invitations when the mail server refuses', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    // Port 9 (discard) on 127.0.0.1: nothing answers SMTP there.
+    t = await makeTestApp({ config: { smtpUrl: 'smtp://127.0.0.1:9' } });
+  });
+  afterAll(() => t.close());
+
+  it('when the invitation cannot be sent, then 503 and no user is kept', async () => {
+    const res = await request(t.app).post('/api/v1/users').set(await t.auth('admin')).send({ email: 'unlucky@example.test', name: 'Unlucky', role: 'viewer' });
+    expect(res.status).toBe(503);
+    expect(res.body.type).toBe('/problems/unavailable');
+    expect(await t.db.models.User.count({ where: { email: 'unlucky@example.test' } })).toBe(0);
+    expect(await t.db.models.OneTimeToken.count()).toBe(0);
+  });
+
+  it('when no fake server runs, then the dev mailbox is 404', async () => {
+    expect((await request(t.app).get('/api/v1/dev/mailbox').set(await t.auth('admin'))).status).toBe(404);
   });
 });
