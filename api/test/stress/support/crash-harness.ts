@@ -7,19 +7,14 @@
  *
  * Used by api/test/stress/crash-durability.test.ts (short) and bench/crash.bench.ts (long).
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import { once } from 'node:events';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { integrityCheck } from '../../../src/db/backup.js';
 import { openDatabase } from '../../../src/db/open.js';
 import { testConfig } from '../../../src/config/config.js';
 import { createServices } from '../../../src/services/index.js';
-
-const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../..');
+import { ServerProcess, freePort, sleep } from './server-process.js';
 
 export interface CrashScenario {
   /** Batches the client appends. */
@@ -70,61 +65,6 @@ function random(seed: number): () => number {
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
-}
-
-async function freePort(): Promise<number> {
-  const server = createServer();
-  server.listen(0, '127.0.0.1');
-  await once(server, 'listening');
-  const address = server.address();
-  server.close();
-  if (!address || typeof address === 'string') throw new Error('no port');
-  return address.port;
-}
-
-const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
-/** The server as a child process on the given database file and port. */
-class ServerProcess {
-  child: ChildProcess | undefined;
-  output = '';
-  constructor(
-    private databaseFile: string,
-    readonly port: number,
-  ) {}
-
-  async start(): Promise<number> {
-    const started = performance.now();
-    this.child = spawn(process.execPath, ['--import', 'tsx', 'api/src/server.ts'], {
-      cwd: repoRoot,
-      env: { ...process.env, DATABASE_FILE: this.databaseFile, PORT: String(this.port), HOST: '127.0.0.1', SEED_DEMO: 'false', LOG_LEVEL: 'warn', NODE_ENV: 'production' },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    const keep = (chunk: Buffer) => {
-      this.output = (this.output + chunk.toString()).slice(-20_000);
-    };
-    this.child.stdout!.on('data', keep);
-    this.child.stderr!.on('data', keep);
-    for (let i = 0; i < 600; i++) {
-      if (this.child.exitCode !== null) throw new Error(`The server exited at start:\n${this.output}`);
-      try {
-        const res = await fetch(`http://127.0.0.1:${this.port}/readyz`);
-        if (res.ok) return performance.now() - started;
-      } catch {
-        // not listening yet
-      }
-      await sleep(50);
-    }
-    throw new Error(`The server did not become ready:\n${this.output}`);
-  }
-
-  async kill(signal: NodeJS.Signals): Promise<void> {
-    const child = this.child;
-    if (!child || child.exitCode !== null || child.signalCode !== null) return;
-    const exited = once(child, 'exit');
-    child.kill(signal);
-    await exited;
-  }
 }
 
 /** Organisation and API key made in the file before the server starts (the server has no demo data). */
