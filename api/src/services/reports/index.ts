@@ -77,13 +77,15 @@ export function createReportsService(deps: {
 }) {
   const { db, sites, circuits, checks, mailer, traces } = deps;
 
-  async function circuitData(scope: Scope, circuitId: string): Promise<CircuitReportData> {
+  /** A circuit's check and, for a PDF, its plots (a CSV has no use for the envelopes they read). */
+  async function circuitData(scope: Scope, circuitId: string, format: ReportFormat): Promise<CircuitReportData> {
     const run = await checks.run(scope, circuitId);
+    const plots = format === 'pdf';
     return {
       circuit: await circuits.get(scope, circuitId),
       check: run.view,
-      plot: stackedStartPlot(run),
-      recorded: traces ? await recordedTracesPlot(traces, scope, run) : null,
+      plot: plots ? stackedStartPlot(run) : { title: '', note: '', series: [], limits: [], xLabel: '' },
+      recorded: plots && traces ? await recordedTracesPlot(traces, scope, run) : null,
     };
   }
 
@@ -106,7 +108,7 @@ export function createReportsService(deps: {
   return {
     /** The report of one circuit: its check with the figures behind it. 404 outside the organisation. */
     async circuitReport(scope: Scope, circuitId: string, format: ReportFormat): Promise<RenderedReport> {
-      const data = await circuitData(scope, circuitId);
+      const data = await circuitData(scope, circuitId, format);
       const h = await header(scope, data.circuit.siteId, `Headroom circuit report: ${data.circuit.label}`);
       return render(format, h, [data], data.circuit.label);
     },
@@ -116,7 +118,7 @@ export function createReportsService(deps: {
      * set up or the server refuses). Returns what was sent.
      */
     async emailCircuitReport(scope: Scope, circuitId: string, input: { to: string; message?: string | undefined }) {
-      const data = await circuitData(scope, circuitId);
+      const data = await circuitData(scope, circuitId, 'pdf');
       const h = await header(scope, data.circuit.siteId, `Headroom circuit report: ${data.circuit.label}`);
       const pdf = await render('pdf', h, [data], data.circuit.label);
       // A label is one line in the subject whatever it holds.
@@ -140,7 +142,7 @@ export function createReportsService(deps: {
       const skipped: SkippedCircuit[] = [];
       for (const id of await circuitIdsOfSite(scope, siteId)) {
         try {
-          data.push(await circuitData(scope, id));
+          data.push(await circuitData(scope, id, format));
         } catch (err) {
           // One circuit that cannot be judged (409) must not hide the others: it is listed with the reason.
           if (!(err instanceof Problem && err.type === 'conflict')) throw err;
