@@ -3,6 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 import { binaryBody, pdfText } from '../../testing/pdf-response.js';
+import { HeadroomCheck } from './schemas/checks.js';
 
 const T0 = Date.UTC(2026, 0, 5, 9, 0, 0);
 
@@ -45,6 +46,7 @@ describe('the headroom check on recorded traces', () => {
     // → running sum 20.5 A > 20 A (NEC 2023 210.23): over the limit; aligned start 30 + 12.5 = 42.5 A
     const res = await request(t.app).get(`/api/v1/circuits/${circuitId}/check`).set(await t.auth());
     expect(res.status).toBe(200);
+    expect(HeadroomCheck.strict().safeParse(res.body).error).toBeUndefined();
     const mixer = res.body.loads.find((l: { name: string }) => l.name === 'Mixer');
     expect(mixer).toMatchObject({ runningSource: 'trace', startUpSource: 'events' });
     expect(mixer.runningA).toBeCloseTo(8, 6);
