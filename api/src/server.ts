@@ -8,12 +8,14 @@ import { ConfigError, loadConfig } from './config/config.js';
 import { openDatabase } from './db/open.js';
 import { startFakeSmtpServer } from './mail/fake-smtp-server.js';
 import { DEMO_API_KEY, DEMO_API_KEY_TOKEN, DEMO_USERS, seedDemoIfEmpty } from '../../seeds/demo.js';
+import { demoSampleStore } from '../../seeds/demo-samples.js';
 
 async function main() {
   const config = loadConfig();
   const logger = pino({ level: config.logLevel });
   const db = await openDatabase({ databaseFile: config.databaseFile, databaseUrl: config.databaseUrl });
-  const seeded = config.seedDemo ? await seedDemoIfEmpty(db) : false;
+  // The demo traces get their samples stored and are closed (analysed) as they are seeded.
+  const seeded = config.seedDemo ? await seedDemoIfEmpty(db, demoSampleStore(config)) : false;
   // Without SMTP_URL, mail goes to a local fake SMTP server and can be read at GET /api/v1/dev/mailbox.
   const mailbox = config.smtpUrl ? undefined : await startFakeSmtpServer();
   const app = createApp(config, db, { ...(mailbox ? { mailbox } : {}), logger });

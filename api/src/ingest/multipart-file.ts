@@ -27,6 +27,7 @@ export function readMultipartFile<T>(req: Request, res: Response, maxFileBytes: 
     return Promise.reject(new Problem('unsupported-media-type', 'Send the file as multipart/form-data (field "file", after the other fields)'));
   }
   let handled: { result: T } | null = null;
+  let fileError: unknown = null;
   const storage: multer.StorageEngine = {
     _handleFile(request, file, callback) {
       onFile({ ...(request.body as Record<string, unknown>) }, file.stream).then(
@@ -36,6 +37,7 @@ export function readMultipartFile<T>(req: Request, res: Response, maxFileBytes: 
         },
         (err: unknown) => {
           // The rest of the file is not wanted once it has failed.
+          fileError = err;
           file.stream.resume();
           callback(err as Error);
         },
@@ -51,7 +53,11 @@ export function readMultipartFile<T>(req: Request, res: Response, maxFileBytes: 
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') reject(tooLarge(maxFileBytes));
         else reject(new Problem('validation', MULTER_PROBLEMS[err.code] ?? err.message, { errors: [{ detail: MULTER_PROBLEMS[err.code] ?? err.message, pointer: `/${err.field ?? ''}` }] }));
-      } else if (err) reject(err);
+      } else if (err && err === fileError) reject(err);
+      else if (err) {
+        // busboy's own errors: the body is not a well-formed multipart form.
+        reject(new Problem('malformed-body', `The multipart form could not be read: ${(err as Error).message ?? String(err)}`));
+      }
       else if (!handled) reject(new Problem('validation', 'The form has no file: send the CSV in the field "file"', { errors: [{ detail: 'required', pointer: '/file' }] }));
       else resolve(handled.result);
     });
