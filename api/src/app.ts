@@ -39,7 +39,8 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   Object.assign(app.locals, { services, config, logger });
 
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
+  // Client addresses (rate limits, audit log) come from the socket unless TRUST_PROXY names the proxies.
+  app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
   app.use(requestLogging(logger));
   // CORS is off unless CORS_ORIGINS lists the browser origins allowed to call the API (bearer tokens,

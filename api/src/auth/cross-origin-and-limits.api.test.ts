@@ -65,3 +65,19 @@ describe('CORS with an allow-list', () => {
     expect(other.headers['access-control-allow-origin']).toBeUndefined();
   });
 });
+
+describe('client addresses behind a reverse proxy', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await makeTestApp({ config: { trustProxy: 'loopback', rateLimits: { perCallerPerMinute: 1000, perIpPerMinute: 2, signInFailuresPer15Min: 10, passwordResetsPerHour: 5 } } });
+  });
+  afterAll(() => t.close());
+
+  it('when TRUST_PROXY names the proxy, then each forwarded client has its own limit', async () => {
+    const from = (ip: string) => request(t.app).get('/api/v1/sites').set('X-Forwarded-For', ip);
+    await from('198.51.100.7');
+    await from('198.51.100.7');
+    expect((await from('198.51.100.7')).status).toBe(429);
+    expect((await from('198.51.100.8')).status).toBe(401);
+  });
+});

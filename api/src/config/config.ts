@@ -21,6 +21,7 @@ const EnvSchema = z.object({
   JSON_BODY_LIMIT: z.string().default('5mb'),
   SAMPLE_BODY_LIMIT: z.string().default('2gb'),
   CORS_ORIGINS: z.string().default(''),
+  TRUST_PROXY: z.string().regex(/^(|\d{1,2}|[\w.:/, ]+)$/, 'a hop count, or addresses/subnets such as "loopback, 10.0.0.0/8"').default(''),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(1200),
   RATE_LIMIT_IP_PER_MINUTE: z.coerce.number().int().min(1).default(2400),
   SIGN_IN_FAILURES_PER_15_MIN: z.coerce.number().int().min(1).default(10),
@@ -42,6 +43,8 @@ export interface Config {
   jsonBodyLimit: string;
   sampleBodyLimit: string;
   corsOrigins: string[];
+  /** Express `trust proxy`: which proxies' X-Forwarded-For to believe (false: none). */
+  trustProxy: false | number | string;
   /** Requests per minute per API key or user, per network address, and the stricter account limits. */
   rateLimits: { perCallerPerMinute: number; perIpPerMinute: number; signInFailuresPer15Min: number; passwordResetsPerHour: number };
   publicUrl: string;
@@ -73,6 +76,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     corsOrigins: e.CORS_ORIGINS.split(',')
       .map((s) => s.trim())
       .filter(Boolean),
+    trustProxy: e.TRUST_PROXY === '' ? false : /^\d+$/.test(e.TRUST_PROXY) ? Number(e.TRUST_PROXY) : e.TRUST_PROXY,
     rateLimits: {
       perCallerPerMinute: e.RATE_LIMIT_PER_MINUTE,
       perIpPerMinute: e.RATE_LIMIT_IP_PER_MINUTE,

@@ -1,3 +1,4 @@
+import type { Logger } from 'pino';
 import { Op, UniqueConstraintError } from 'sequelize';
 import type { Scope } from '../auth/scope.js';
 import { formatApiKey, hashSecret, newApiKeyId, parseApiKey, randomSecret, sameHash } from '../auth/secrets.js';
@@ -41,7 +42,7 @@ function statusOf(key: ApiKey, now: Date): ApiKeyView['status'] {
   return 'active';
 }
 
-export function createApiKeysService(db: Db, audit: AuditService) {
+export function createApiKeysService(db: Db, audit: AuditService, logger?: Logger) {
   const { ApiKey, ApiKeyAddress, User } = db.models;
 
   async function views(keys: ApiKey[], now = new Date()): Promise<ApiKeyView[]> {
@@ -167,7 +168,8 @@ export function createApiKeysService(db: Db, audit: AuditService) {
       if (!key || !sameHash(hashSecret(parsed.secret), key.secretHash)) return { refused: 'unknown' };
       if (key.revokedAt) return { refused: 'revoked' };
       if (key.expiresAt && key.expiresAt.getTime() <= now.getTime()) return { refused: 'expired' };
-      if (address) await noteAddress(key, address, now);
+      // Bookkeeping only: if it cannot be written (e.g. the database is busy), the key still works.
+      if (address) await noteAddress(key, address, now).catch((err: unknown) => logger?.warn({ err, keyId: key.id }, 'API key use not recorded'));
       return {
         scope: {
           organisationId: key.organisationId,
