@@ -15,4 +15,10 @@ describe('generated types', () => {
     execFileSync(process.execPath, [path.join(path.dirname(require.resolve('openapi-typescript/package.json')), 'bin/cli.js'), '../openapi.yaml', '--default-non-nullable', 'false', '-o', out], { cwd: sdkDir, stdio: 'pipe' });
     expect(readFileSync(out, 'utf8')).toBe(readFileSync(path.join(sdkDir, 'src/generated/openapi.d.ts'), 'utf8'));
   });
+
+  it('when the list of operations that keep Idempotency-Keys is regenerated, then it equals the committed file', () => {
+    const out = path.join(mkdtempSync(path.join(tmpdir(), 'sdk-gen-')), 'idempotent-operations.ts');
+    execFileSync(process.execPath, ['--import', 'tsx', 'scripts/idempotent-operations.ts', '../openapi.yaml', out], { cwd: sdkDir, stdio: 'pipe' });
+    expect(readFileSync(out, 'utf8')).toBe(readFileSync(path.join(sdkDir, 'src/generated/idempotent-operations.ts'), 'utf8'));
+  });
 });

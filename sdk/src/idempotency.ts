@@ -1,4 +1,5 @@
 import type { Middleware } from 'openapi-fetch';
+import { IDEMPOTENT_OPERATIONS } from './generated/idempotent-operations.js';
 
 /**
  * A random RFC 9562 version-4 UUID. Uses `crypto.getRandomValues`, which browsers offer on plain-http
@@ -29,4 +30,20 @@ export function idempotencyKeys(): Middleware {
       return request;
     },
   };
+}
+
+/** `POST /traces/{traceId}/samples` -> a matcher of the method and the path after `/api/v1`. */
+const KEPT = IDEMPOTENT_OPERATIONS.map((operation) => {
+  const [method = '', template = ''] = operation.split(' ');
+  const pattern = template.replace(/[.*+?^$()|[\]\\]/g, '\\$&').replace(/\{[^}]+\}/g, '[^/]+');
+  return { method, path: new RegExp(`/api/v1${pattern}/?$`) };
+});
+
+/**
+ * Whether the server keeps the first answer for an Idempotency-Key on this call (the operation declares
+ * the header in openapi.yaml), so that repeating it after an unclear failure cannot write twice.
+ */
+export function serverKeepsIdempotencyKey(method: string, url: string): boolean {
+  const { pathname } = new URL(url, 'http://localhost');
+  return KEPT.some((k) => k.method === method.toUpperCase() && k.path.test(pathname));
 }

@@ -44,6 +44,8 @@ async function scriptedServer(steps: Step[]): Promise<{ baseUrl: string; request
 
 const fast = { initialDelayMs: 1, maxDelayMs: 5, maxRetries: 3 };
 const newSite = { name: 'Quay Road workshop' };
+// POST /traces keeps Idempotency-Keys on the server (openapi.yaml declares the header); POST /sites does not.
+const newTrace = { name: 'Planer start', kind: 'rms' } as const;
 
 describe('backoff', () => {
   it('when retries go on, then the delay doubles from the initial delay up to the cap, with jitter of half to all of it', () => {
@@ -71,7 +73,9 @@ describe('backoff', () => {
 
 describe('retry decision', () => {
   const options = { ...DEFAULT_RETRY, initialDelayMs: 100, maxDelayMs: 100 };
-  const base = { method: 'GET', hasIdempotencyKey: false, retriesDone: 0, options, callerAborted: false };
+  const base = { method: 'GET', hasIdempotencyKey: false, serverKeepsKey: true, retriesDone: 0, options, callerAborted: false };
+  const refused = new TypeError('fetch failed', { cause: Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:9'), { code: 'ECONNREFUSED' }) });
+  const notKept = { ...base, method: 'POST', hasIdempotencyKey: true, serverKeepsKey: false };
   const answer = (status: number, headers: Record<string, string> = {}) => ({ response: new Response(null, { status, headers }) });
 
   it.each([
@@ -87,6 +91,11 @@ describe('retry decision', () => {
     ['a network error on POST with an Idempotency-Key', true, { error: new TypeError('fetch failed') }, { ...base, method: 'POST', hasIdempotencyKey: true }],
     ['retries used up', false, answer(503), { ...base, retriesDone: 2 }],
     ['the caller aborted', false, { error: new TypeError('aborted') }, { ...base, callerAborted: true }],
+    ['a lost connection on a POST whose server ignores keys', false, { error: new TypeError('fetch failed') }, notKept],
+    ['a refused connection on a POST whose server ignores keys', true, { error: refused }, notKept],
+    ['500 on a POST whose server ignores keys', false, answer(500), notKept],
+    ['503 on a POST whose server ignores keys', true, answer(503), notKept],
+    ['429 on a POST whose server ignores keys', true, answer(429), notKept],
   ])('when %s, then retried is %s', (_name, retried, outcome, context) => {
     expect(retryDelayMs(outcome, context) !== undefined).toBe(retried);
   });
@@ -99,21 +108,21 @@ describe('retry decision', () => {
 
 describe('retrying client against a scripted server on 127.0.0.1', () => {
   it('when the connection drops, then 503, then 429, then the POST succeeds with one Idempotency-Key throughout', async () => {
-    const { baseUrl, requests } = await scriptedServer(['drop', { status: 503 }, { status: 429, headers: { 'Retry-After': '0' } }, { status: 201, body: { id: 's1' } }]);
+    const { baseUrl, requests } = await scriptedServer(['drop', { status: 503 }, { status: 429, headers: { 'Retry-After': '0' } }, { status: 201, body: { id: 't1' } }]);
     const client = createClient({ baseUrl, retry: fast });
-    const site = await unwrap(client.POST('/sites', { body: newSite }));
-    expect(site).toEqual({ id: 's1' });
+    const trace = await unwrap(client.POST('/traces', { body: newTrace }));
+    expect(trace).toEqual({ id: 't1' });
     expect(requests).toHaveLength(4);
     const keys = new Set(requests.map((r) => r.idempotencyKey));
     expect(keys.size).toBe(1);
     expect([...keys][0]).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
-    expect(new Set(requests.map((r) => r.body))).toEqual(new Set([JSON.stringify(newSite)]));
+    expect(new Set(requests.map((r) => r.body))).toEqual(new Set([JSON.stringify(newTrace)]));
   });
 
   it('when the caller supplies an Idempotency-Key, then every attempt carries it', async () => {
     const { baseUrl, requests } = await scriptedServer([{ status: 503 }, { status: 201, body: { id: 's1' } }]);
     const client = createClient({ baseUrl, retry: fast });
-    await unwrap(client.POST('/sites', { body: newSite, headers: { 'Idempotency-Key': 'my-key-1' } }));
+    await unwrap(client.POST('/traces', { body: newTrace, headers: { 'Idempotency-Key': 'my-key-1' } }));
     expect(requests.map((r) => r.idempotencyKey)).toEqual(['my-key-1', 'my-key-1']);
   });
 
@@ -158,6 +167,18 @@ describe('retrying client against a scripted server on 127.0.0.1', () => {
     expect(requests).toHaveLength(1);
   });
 
+  it('when the server does not keep keys for the route, then a POST is repeated only after an answer that says nothing was done', async () => {
+    const dropped = await scriptedServer(['drop', { status: 201 }]);
+    const client = createClient({ baseUrl: dropped.baseUrl, retry: fast });
+    await expect(unwrap(client.POST('/sites', { body: newSite }))).rejects.toBeInstanceOf(HeadroomConnectionError);
+    expect(dropped.requests).toHaveLength(1);
+    server?.closeAllConnections();
+    server?.close();
+    const busy = await scriptedServer([{ status: 503 }, { status: 429, headers: { 'Retry-After': '0' } }, { status: 201, body: { id: 's1' } }]);
+    await expect(unwrap(createClient({ baseUrl: busy.baseUrl, retry: fast }).POST('/sites', { body: newSite }))).resolves.toEqual({ id: 's1' });
+    expect(busy.requests).toHaveLength(3);
+  });
+
   it('when a 400 comes back, then it is not retried', async () => {
     const { baseUrl, requests } = await scriptedServer([{ status: 400 }, { status: 201 }]);
     const client = createClient({ baseUrl, retry: fast });
@@ -196,14 +217,14 @@ describe('attempt timeout counts time without progress', () => {
 
   it('when an upload keeps making progress for longer than the timeout, then it is not cut off', async () => {
     let attempts = 0;
-    const response = await withRetries((signal, progressed) => (attempts++, slowAttempt(40, 700)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, options });
+    const response = await withRetries((signal, progressed) => (attempts++, slowAttempt(40, 700)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, serverKeepsKey: true, options });
     expect(response.status).toBe(200);
     expect(attempts).toBe(1);
   });
 
   it('when an attempt stalls, then it is abandoned after the timeout and retried', async () => {
     let attempts = 0;
-    const error = await withRetries((signal, progressed) => (attempts++, slowAttempt(null, 10_000)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, options }).catch((e: unknown) => e);
+    const error = await withRetries((signal, progressed) => (attempts++, slowAttempt(null, 10_000)(signal, progressed)), { method: 'POST', hasIdempotencyKey: true, serverKeepsKey: true, options }).catch((e: unknown) => e);
     expect(error).toBeInstanceOf(HeadroomConnectionError);
     expect((error as Error).message).toMatch(/no progress within 200 ms.* after 2 attempts/);
     expect(attempts).toBe(2);

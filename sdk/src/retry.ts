@@ -1,4 +1,5 @@
 import { HeadroomConnectionError, parseRetryAfter } from './errors.js';
+import { serverKeepsIdempotencyKey } from './idempotency.js';
 
 /**
  * When and how often a call is tried again. Set per client (`createClient({ retry })`) and override per
@@ -55,9 +56,20 @@ export function backoffDelayMs(retry: number, options: ResolvedRetryOptions, ran
 /** What one attempt came to: an HTTP answer, or an error before any answer arrived. */
 export type AttemptOutcome = { response: Response } | { error: unknown };
 
+/** Error codes of a connection that never carried the request (nothing can have been done). */
+const NEVER_SENT_CODES = new Set(['ECONNREFUSED', 'ENOTFOUND', 'EAI_AGAIN']);
+
+function neverSent(error: unknown): boolean {
+  const cause = error instanceof Error ? (error.cause as { code?: unknown } | undefined) : undefined;
+  return typeof cause?.code === 'string' && NEVER_SENT_CODES.has(cause.code);
+}
+
 /**
  * Whether to try again, and after how long (ms); undefined means stop.
  * - Nothing is retried when the caller aborted, or for POST/PATCH without an Idempotency-Key.
+ * - A POST/PATCH whose server does not keep Idempotency-Keys (`serverKeepsKey` false) is retried only
+ *   when it surely did nothing: 429, 503, or a connection refused before the request went out. A lost
+ *   connection, a time-out or a 500 could follow a write, so it is not repeated.
  * - Network errors and attempt timeouts are retried.
  * - 429, 500, 502, 503 and 504 are retried, after `Retry-After` when the server sent one (a longer wait
  *   than `maxRetryAfterMs` fails at once).
@@ -66,17 +78,20 @@ export type AttemptOutcome = { response: Response } | { error: unknown };
  */
 export function retryDelayMs(
   outcome: AttemptOutcome,
-  context: { method: string; hasIdempotencyKey: boolean; retriesDone: number; options: ResolvedRetryOptions; callerAborted: boolean },
+  context: { method: string; hasIdempotencyKey: boolean; serverKeepsKey: boolean; retriesDone: number; options: ResolvedRetryOptions; callerAborted: boolean },
 ): number | undefined {
   const { options } = context;
   if (context.callerAborted || context.retriesDone >= options.maxRetries) return undefined;
-  if (NEEDS_IDEMPOTENCY_KEY.has(context.method.toUpperCase()) && !context.hasIdempotencyKey) return undefined;
+  const writes = NEEDS_IDEMPOTENCY_KEY.has(context.method.toUpperCase());
+  if (writes && !context.hasIdempotencyKey) return undefined;
+  const onlyIfNothingDone = writes && !context.serverKeepsKey;
   const backoff = backoffDelayMs(context.retriesDone, options);
-  if ('error' in outcome) return backoff;
+  if ('error' in outcome) return onlyIfNothingDone && !neverSent(outcome.error) ? undefined : backoff;
   const { response } = outcome;
   const retryAfter = parseRetryAfter(response.headers.get('Retry-After'));
   const retryable = RETRYABLE_STATUSES.has(response.status) || (response.status === 409 && retryAfter !== undefined);
   if (!retryable) return undefined;
+  if (onlyIfNothingDone && response.status !== 429 && response.status !== 503) return undefined;
   if (retryAfter === undefined) return backoff;
   return retryAfter > options.maxRetryAfterMs ? undefined : retryAfter;
 }
@@ -110,6 +125,8 @@ export type Attempt = (signal: AbortSignal, progressed: () => void) => Promise<R
 export interface RetryContext {
   method: string;
   hasIdempotencyKey: boolean;
+  /** The server keeps the first answer for the key on this operation (see serverKeepsIdempotencyKey). */
+  serverKeepsKey: boolean;
   options: ResolvedRetryOptions;
   /** The caller's signal: aborting it stops the call at once, with no retry. */
   signal?: AbortSignal | null;
@@ -184,7 +201,13 @@ export function retryingFetch(baseFetch: typeof globalThis.fetch, clientRetry: R
     const callerSignal = request.signal;
     return withRetries(
       (signal) => baseFetch(new Request(request.url, { method: request.method, headers: request.headers, body, signal, redirect: request.redirect, credentials: request.credentials })),
-      { method: request.method, hasIdempotencyKey: request.headers.has('Idempotency-Key'), options, signal: callerSignal },
+      {
+        method: request.method,
+        hasIdempotencyKey: request.headers.has('Idempotency-Key'),
+        serverKeepsKey: serverKeepsIdempotencyKey(request.method, request.url),
+        options,
+        signal: callerSignal,
+      },
     );
   };
 }

@@ -1,6 +1,6 @@
 import { bearerHeader, type ClientContext } from './client.js';
 import { errorFromFailedResponse } from './errors.js';
-import { newIdempotencyKey } from './idempotency.js';
+import { newIdempotencyKey, serverKeepsIdempotencyKey } from './idempotency.js';
 import { resolveRetry, withRetries, type RetryOptions } from './retry.js';
 
 /** Bytes of the request body handed to the network so far, out of the whole body. */
@@ -121,7 +121,7 @@ export async function sendBody(context: ClientContext, options: SendOptions): Pr
       const init: RequestInit & { duplex: 'half' } = { method: options.method, headers, body: countingStream(body, onProgress), signal, duplex: 'half' };
       return context.fetch(url, init);
     },
-    { method: options.method, hasIdempotencyKey: true, options: resolveRetry(context.retry, options.retry), signal: options.signal ?? null },
+    { method: options.method, hasIdempotencyKey: true, serverKeepsKey: serverKeepsIdempotencyKey(options.method, url), options: resolveRetry(context.retry, options.retry), signal: options.signal ?? null },
   );
   if (!response.ok) throw await errorFromFailedResponse(response);
   return response;
