@@ -38,6 +38,28 @@ export default tseslint.config(
     rules: { ...reactHooks.configs.recommended.rules },
   },
   {
+    // Dashboard layering (bulletproof-react): shared code (components, lib) never imports features or the
+    // app; a feature never imports another feature or the app. Pages in app/ compose features.
+    files: ['dashboard/src/components/**/*.{ts,tsx}', 'dashboard/src/lib/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ group: ['**/features/**', '**/app/**'], message: 'shared code imports no feature and no page' }] }],
+    },
+  },
+  {
+    files: ['dashboard/src/features/*/*/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['../../*/**', '!../../../**'], message: 'a feature never imports another feature; compose them in app/routes' },
+            { group: ['**/app/**'], message: 'features import no page' },
+          ],
+        },
+      ],
+    },
+  },
+  {
     files: ['**/*.test.ts', '**/*.test.tsx', 'bench/**/*.ts'],
     rules: { '@typescript-eslint/no-non-null-assertion': 'off' },
   },

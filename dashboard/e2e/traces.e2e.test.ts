@@ -32,7 +32,9 @@ describe('traces', () => {
     const { context, page } = await newPage(e2e.browser, e2e.server.baseUrl);
     await signIn(page, 'viewer', `/traces/${mixer.id}`);
     await page.locator('canvas[data-chart-name="trace"][data-drawn="true"]').waitFor();
-    const finer = page.waitForResponse((r) => r.url().includes('/series?') && r.url().includes('from=') && r.status() === 200);
+    const finer = page.waitForResponse(
+      (r) => r.url().includes('/series?') && r.url().includes('from=') && r.status() === 200,
+    );
     await page.getByRole('button', { name: 'Zoom the chart to Inrush 1' }).click();
     const response = await finer;
     const body = (await response.json()) as { fromTime: number; toTime: number; sampleCount: number };
@@ -71,7 +73,8 @@ describe('traces', () => {
     const { context, page } = await newPage(e2e.browser, e2e.server.baseUrl);
     await signIn(page, 'viewer', `/traces/${mixer.id}`);
     await page.getByRole('button', { name: 'Download CSV' }).waitFor();
-    for (const name of ['Edit', 'Delete', 'Close trace']) expect(await page.getByRole('button', { name, exact: true }).count()).toBe(0);
+    for (const name of ['Edit', 'Delete', 'Close trace'])
+      expect(await page.getByRole('button', { name, exact: true }).count()).toBe(0);
     await page.goto('/traces');
     await page.getByTestId('traces-table').waitFor();
     expect(await page.getByRole('link', { name: 'Upload a CSV' }).count()).toBe(0);

@@ -49,6 +49,21 @@ describe('buildPreview and guessMapping', () => {
     expect(guessMapping(p)).toMatchObject({ timeColumn: null, currentColumn: 0 });
   });
 
+  it('when one reading in the preview is not a number, then the column is still proposed (the server reports the line)', () => {
+    const p = buildPreview(
+      [
+        ['Time', 'Current (A)'],
+        ['2026-03-01T09:00:00Z', '1.0'],
+        ['2026-03-01T09:00:01Z', '1.1'],
+        ['2026-03-01T09:00:02Z', 'oops'],
+        ['2026-03-01T09:00:03Z', '1.2'],
+        ['2026-03-01T09:00:04Z', '1.3'],
+      ],
+      ',',
+    );
+    expect(guessMapping(p)).toMatchObject({ timeColumn: 0, currentColumn: 1 });
+  });
+
   it('when a time is written with a space and milliseconds, then it counts as ISO', () => {
     expect(looksLikeIsoTime('2026-03-01 10:00:00.250')).toBe(true);
     expect(looksLikeIsoTime('10:00')).toBe(false);

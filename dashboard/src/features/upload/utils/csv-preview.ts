@@ -68,7 +68,11 @@ export function guessMapping(preview: CsvPreview): MappingGuess {
   const { columns, rows } = preview;
   const values = (i: number) => rows.map((r) => r[i] ?? '').filter((c) => c.trim() !== '');
   const allIso = (i: number) => values(i).length > 0 && values(i).every(looksLikeIsoTime);
-  const allNum = (i: number) => values(i).length > 0 && values(i).every(looksNumeric);
+  // Mostly numbers: a bad cell in the preview should not hide the column (the server names its line).
+  const allNum = (i: number) => {
+    const v = values(i);
+    return v.length > 0 && v.filter(looksNumeric).length > v.length / 2;
+  };
 
   let timeColumn: number | null = columns.findIndex((_, i) => allIso(i));
   if (timeColumn < 0)
