@@ -10,6 +10,7 @@ import { rateLimits } from './auth/rate-limits.js';
 import type { Config } from './config/config.js';
 import type { Db } from './db/open.js';
 import type { FakeMailbox } from './mail/fake-smtp-server.js';
+import { loadShedding } from './middleware/load-shedding.js';
 import { notFoundHandler, problemDetails } from './middleware/problem-details.js';
 import { requestLogging } from './middleware/request-logging.js';
 import { buildOpenApiDocument } from './openapi/document.js';
@@ -85,6 +86,8 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
+  // More requests at once than the server can work on are refused at once with 503 + Retry-After.
+  v1.use(loadShedding({ maxInFlight: config.maxConcurrentRequests }));
   const limits = rateLimits(config);
   v1.use(limits.perAddress);
   // Account routes take small bodies; a body parsed here is not parsed again below.

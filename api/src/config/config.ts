@@ -26,6 +26,7 @@ const EnvSchema = z.object({
   RATE_LIMIT_IP_PER_MINUTE: z.coerce.number().int().min(1).default(2400),
   SIGN_IN_FAILURES_PER_15_MIN: z.coerce.number().int().min(1).default(10),
   PASSWORD_RESETS_PER_HOUR: z.coerce.number().int().min(1).default(5),
+  MAX_CONCURRENT_REQUESTS: z.coerce.number().int().min(1).default(32),
   PUBLIC_URL: z.string().url().optional(),
   SEED_DEMO: booleanFromEnv.default(true),
   DASHBOARD_DIR: z.string().default(path.join(repoRoot, 'dashboard', 'dist')),
@@ -47,6 +48,8 @@ export interface Config {
   trustProxy: false | number | string;
   /** Requests per minute per API key or user, per network address, and the stricter account limits. */
   rateLimits: { perCallerPerMinute: number; perIpPerMinute: number; signInFailuresPer15Min: number; passwordResetsPerHour: number };
+  /** API requests worked on at once; more are answered 503 with Retry-After at once (load shedding). */
+  maxConcurrentRequests: number;
   publicUrl: string;
   seedDemo: boolean;
   dashboardDir: string;
@@ -83,6 +86,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       signInFailuresPer15Min: e.SIGN_IN_FAILURES_PER_15_MIN,
       passwordResetsPerHour: e.PASSWORD_RESETS_PER_HOUR,
     },
+    maxConcurrentRequests: e.MAX_CONCURRENT_REQUESTS,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     seedDemo: e.SEED_DEMO,
     dashboardDir: e.DASHBOARD_DIR,

@@ -12,7 +12,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { v1Routes } from '../../src/routes/v1/index.js';
 import { mintCredentials } from '../../src/testing/credentials.js';
-import { makeTestApp, type TestApp } from '../../src/testing/make-test-app.js';
+import { makeTestApp } from '../../src/testing/make-test-app.js';
 import { Callers, changedTables, collectIds, fuzzCaseArbitrary, invariantViolations, send, stateDigest, type IdPool } from './support/fuzz-harness.js';
 import { fixtureBuilder } from './support/fixtures.js';
 
@@ -20,46 +20,54 @@ const totalCases = Number(process.env.FUZZ_CASES ?? 400);
 const runsPerRoute = Math.max(5, Math.ceil(totalCases / v1Routes.length));
 const seed = process.env.FUZZ_SEED ? Number(process.env.FUZZ_SEED) : undefined;
 
+/** Cases one app takes before a fresh one replaces it: stored rows pile up, and every case hashes them all. */
+const CASES_PER_APP = 150;
+
+/** A test app with a second organisation, fixtures in both, and callers; rebuilt every CASES_PER_APP cases. */
+async function makeWorld() {
+  const t = await makeTestApp();
+  const otherOrganisationId = crypto.randomUUID();
+  await t.db.models.Organisation.create({ id: otherOrganisationId, name: 'Other organisation' });
+  // Fixture credentials are minted lazily and again after a case may have revoked them.
+  const adminOf = (organisationId: string) => {
+    let headers: Record<string, string> | undefined;
+    return async () => {
+      if (!headers || (await request(t.app).get('/api/v1/me').set(headers)).status !== 200) {
+        headers = await mintCredentials(t.app.locals.services, organisationId, 'admin');
+      }
+      return headers;
+    };
+  };
+  const fixtures = [fixtureBuilder(t.app, t.db, adminOf(t.organisationId)), fixtureBuilder(t.app, t.db, adminOf(otherOrganisationId))];
+  const world = {
+    t,
+    callers: new Callers(t),
+    pool: undefined as unknown as IdPool,
+    cases: 0,
+    /** Rebuilds the rows to aim at that a case deleted, and refreshes the id pool. */
+    async refreshFixtures() {
+      for (const f of fixtures) await f.ensure();
+      world.pool = await collectIds(t, otherOrganisationId);
+    },
+  };
+  await world.refreshFixtures();
+  return world;
+}
+
 describe('fuzzing every route', () => {
-  let t: TestApp;
-  let otherOrganisationId: string;
-  let pool: IdPool;
-  let callers: Callers;
+  let world: Awaited<ReturnType<typeof makeWorld>>;
   /** Answers by route and status class, to show the cases reach past validation. */
   const answers = new Map<string, Record<string, number>>();
 
-  let fixtures: Array<ReturnType<typeof fixtureBuilder>>;
-
-  /** Rebuilds the rows to aim at that a case deleted, and refreshes the id pool. */
-  async function refreshFixtures() {
-    for (const f of fixtures) await f.ensure();
-    pool = await collectIds(t, otherOrganisationId);
-  }
-
   beforeAll(async () => {
-    t = await makeTestApp();
-    otherOrganisationId = crypto.randomUUID();
-    await t.db.models.Organisation.create({ id: otherOrganisationId, name: 'Other organisation' });
-    callers = new Callers(t);
-    // Fixture credentials are minted lazily and again after a case may have revoked them.
-    const adminOf = (organisationId: string) => {
-      let headers: Record<string, string> | undefined;
-      return async () => {
-        if (!headers || (await request(t.app).get('/api/v1/me').set(headers)).status !== 200) {
-          headers = await mintCredentials(t.app.locals.services, organisationId, 'admin');
-        }
-        return headers;
-      };
-    };
-    fixtures = [fixtureBuilder(t.app, t.db, adminOf(t.organisationId)), fixtureBuilder(t.app, t.db, adminOf(otherOrganisationId))];
-    await refreshFixtures();
+    world = await makeWorld();
   });
-  afterAll(() => t.close());
+  afterAll(() => world.t.close());
 
   it('when the fixtures are built, then both organisations have rows to aim at', () => {
     for (const table of ['sites', 'circuits', 'loads', 'traces']) {
-      expect(pool.own.get(table)?.length, table).toBeGreaterThan(0);
-      expect(pool.other.get(table)?.length, table).toBeGreaterThan(0);
+      expect(world.pool.own.get(table)?.length, table).toBeGreaterThan(0);
+      expect(world.pool.other.get(table)?.length, table).toBeGreaterThan(0);
     }
   });
 
@@ -68,6 +76,11 @@ describe('fuzzing every route', () => {
     it(`${method.toUpperCase()} ${path}: never a 5xx, a hang, a partial write or another organisation's data`, async () => {
       await fc.assert(
         fc.asyncProperty(fuzzCaseArbitrary(route), async (fuzz) => {
+          if (++world.cases > CASES_PER_APP) {
+            await world.t.close();
+            world = await makeWorld();
+          }
+          const { t, callers, pool } = world;
           const auth = await callers.headers(fuzz.caller, fuzz.garbageToken);
           const before = await stateDigest(t);
           const outcome = await send(t, route, fuzz, pool, auth);
@@ -79,7 +92,7 @@ describe('fuzzing every route', () => {
           // A successful write may have signed out, revoked or deleted what later cases aim at.
           if (outcome.status < 300 && method !== 'get') {
             callers.forget();
-            await refreshFixtures();
+            await world.refreshFixtures();
           }
           const violations = invariantViolations(outcome, fuzz, pool, changed, route);
           if (violations.length > 0) throw new Error(`${outcome.url}\n  ${violations.join('\n  ')}`);
@@ -99,10 +112,10 @@ describe('fuzzing every route', () => {
     // Not only refusals: a fair share of the generated requests must have been accepted.
     expect(count('2xx')).toBeGreaterThan(0.05 * (count('2xx') + count('4xx')));
     expect(count('4xx')).toBeGreaterThan(0);
-    const res = await request(t.app).get('/readyz');
+    const res = await request(world.t.app).get('/readyz');
     expect(res.status).toBe(200);
-    if (t.db.dialect === 'sqlite') {
-      const [rows] = await t.db.sequelize.query('PRAGMA integrity_check');
+    if (world.t.db.dialect === 'sqlite') {
+      const [rows] = await world.t.db.sequelize.query('PRAGMA integrity_check');
       expect(rows).toEqual([{ integrity_check: 'ok' }]);
     }
   });
