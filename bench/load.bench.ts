@@ -60,7 +60,7 @@ async function api(base: string, key: string, method: string, url: string, body?
   const res = await fetch(`${base}${url}`, {
     method,
     headers: { Authorization: `Bearer ${key}`, ...(body !== undefined ? { 'Content-Type': contentType } : {}) },
-    ...(body !== undefined ? { body: body instanceof Uint8Array ? body : JSON.stringify(body) } : {}),
+    ...(body !== undefined ? { body: body instanceof Uint8Array ? (body as BodyInit) : JSON.stringify(body) } : {}),
   });
   const text = await res.text();
   if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${text}`);

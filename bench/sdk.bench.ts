@@ -50,8 +50,8 @@ async function newTrace(kind: 'rms' | 'waveform') {
 /** The same batches as the SDK sends, with bare fetch: no retry wrapper, no progress stream. */
 async function bareAppend(traceId: string, samples: Samples) {
   for (const batch of sampleBatches(samples)) {
-    const query = new URLSearchParams(Object.entries(batch.query).map(([k, v]) => [k, String(v)]));
-    const response = await fetch(`${baseUrl}/api/v1/traces/${traceId}/samples?${query}`, { method: 'POST', headers: { Authorization: `Bearer ${token}`, 'Content-Type': batch.contentType }, body: batch.body });
+    const query = new URLSearchParams(Object.entries(batch.query).map(([k, v]): [string, string] => [k, String(v)]));
+    const response = await fetch(`${baseUrl}/api/v1/traces/${traceId}/samples?${query}`, { method: 'POST', headers: { Authorization: `Bearer ${token}`, 'Content-Type': batch.contentType }, body: batch.body as BodyInit });
     if (!response.ok) throw new Error(`bare append: ${response.status} ${await response.text()}`);
     await response.arrayBuffer();
   }
