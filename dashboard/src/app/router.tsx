@@ -1,5 +1,9 @@
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { createBrowserRouter, Navigate, RouterProvider, type RouteObject } from 'react-router';
 import { LoadingState } from '../components/ui/states';
+import { prefetchCircuitPage } from '../features/circuits/api/prefetch';
+import { prefetchTracePage } from '../features/traces/api/prefetch';
 import { paths } from '../lib/paths';
 import { AppLayout } from './layout/app-layout';
 import { RequireRole, RequireSession } from './layout/require-session';
@@ -13,7 +17,11 @@ const page = (load: () => Promise<{ default: React.ComponentType }>) => async ()
   Component: (await load()).default,
 });
 
-export const routes: RouteObject[] = [
+/**
+ * The routes. Pages whose data is known from the address start their requests in a loader, which runs
+ * while the page's code downloads; the loader returns at once (nothing waits on it).
+ */
+export const createRoutes = (queryClient: QueryClient): RouteObject[] => [
   {
     errorElement: <RouteError />,
     hydrateFallbackElement: <LoadingState />,
@@ -29,10 +37,24 @@ export const routes: RouteObject[] = [
             children: [
               { path: paths.home.path, element: <Navigate to={paths.traces.href()} replace /> },
               { path: paths.traces.path, lazy: page(() => import('./routes/traces')) },
-              { path: paths.trace.path, lazy: page(() => import('./routes/trace')) },
+              {
+                path: paths.trace.path,
+                loader: ({ params, request }) => {
+                  if (params.traceId) prefetchTracePage(queryClient, params.traceId, new URL(request.url).searchParams);
+                  return null;
+                },
+                lazy: page(() => import('./routes/trace')),
+              },
               { path: paths.sites.path, lazy: page(() => import('./routes/sites')) },
               { path: paths.site.path, lazy: page(() => import('./routes/site')) },
-              { path: paths.circuit.path, lazy: page(() => import('./routes/circuit')) },
+              {
+                path: paths.circuit.path,
+                loader: ({ params }) => {
+                  if (params.circuitId) prefetchCircuitPage(queryClient, params.circuitId);
+                  return null;
+                },
+                lazy: page(() => import('./routes/circuit')),
+              },
               {
                 element: <RequireRole ability="canEdit" />,
                 children: [{ path: paths.upload.path, lazy: page(() => import('./routes/upload')) }],
@@ -55,8 +77,8 @@ export const routes: RouteObject[] = [
   },
 ];
 
-const router = createBrowserRouter(routes);
-
 export function AppRouter() {
+  const queryClient = useQueryClient();
+  const [router] = useState(() => createBrowserRouter(createRoutes(queryClient)));
   return <RouterProvider router={router} />;
 }

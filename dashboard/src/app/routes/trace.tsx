@@ -7,7 +7,14 @@ import { Button } from '../../components/ui/button';
 import { ConfirmDialog } from '../../components/ui/dialog';
 import { PageHeader, Panel } from '../../components/ui/page-header';
 import { ErrorState, LoadingState } from '../../components/ui/states';
-import { onThresholdOf, useTraceEvents, useTraceStats } from '../../features/traces/api/trace-data';
+import {
+  CHART_POINTS,
+  onThresholdOf,
+  useTraceEvents,
+  useTraceSeries,
+  useTraceStats,
+  windowFromSearch,
+} from '../../features/traces/api/trace-data';
 import {
   useCloseTrace,
   useDeleteTrace,
@@ -28,9 +35,7 @@ import { useAbilities } from '../../lib/session';
 /** The zoom window and the selected event live in the address, so a view can be shared and "back" undoes a zoom. */
 function useWindowParams() {
   const [params, setParams] = useSearchParams();
-  const from = Number(params.get('from'));
-  const to = Number(params.get('to'));
-  const window: TimeWindow | null = params.has('from') && params.has('to') && to > from ? { from, to } : null;
+  const window: TimeWindow | null = windowFromSearch(params);
   const selectedEventId = params.get('event');
   const setView = useCallback(
     (next: TimeWindow | null, eventId: string | null = null) => {
@@ -62,19 +67,46 @@ function probeText(trace: Trace): string {
   return loops > 1 ? `${scale}, ${loops} loops through the jaw (readings ÷ ${loops})` : scale;
 }
 
+/** Windows up to this many samples get exact percentiles (and a duty cycle); longer ones summaries. */
+const EXACT_FIGURES_MAX_SAMPLES = 2_000_000;
+
+/**
+ * What to ask the statistics for. The whole of a closed RMS trace: the analysis stored at close (it has
+ * percentiles and the duty cycle). A window: exact percentiles from its samples while it is small enough
+ * to answer quickly, else the chunk summaries (no percentiles). Waveforms: no duty cycle, as the event
+ * threshold is an RMS level, not one for instantaneous values.
+ */
+function figuresRequest(
+  trace: Trace | undefined,
+  window: TimeWindow | null,
+  events: Parameters<typeof onThresholdOf>[0],
+): { percentiles: boolean; onThresholdA: number | null } {
+  if (!trace || trace.firstSampleTime === null || trace.lastSampleTime === null)
+    return { percentiles: false, onThresholdA: null };
+  if (!window) return { percentiles: false, onThresholdA: null };
+  const span = Math.max(1, trace.lastSampleTime - trace.firstSampleTime);
+  const share = Math.min(
+    1,
+    Math.max(0, (Math.min(window.to, trace.lastSampleTime) - Math.max(window.from, trace.firstSampleTime)) / span),
+  );
+  const exact = trace.sampleCount * share <= EXACT_FIGURES_MAX_SAMPLES;
+  return { percentiles: exact, onThresholdA: exact && trace.kind === 'rms' ? onThresholdOf(events) : null };
+}
+
 export default function TracePage() {
   const { traceId = '' } = useParams();
   const trace = useTrace(traceId);
   const { window, selectedEventId, setView } = useWindowParams();
-  const events = useTraceEvents(traceId, Boolean(trace.data && trace.data.sampleCount > 0));
-  // Statistics wait for the events, whose detection gives the on-threshold of the duty cycle.
-  // (For waveforms the threshold is an RMS level, not one for instantaneous values: no duty cycle.)
-  const onThresholdA = trace.data?.kind === 'rms' ? onThresholdOf(events.data) : null;
+  // The envelope and the events are asked for at once with the trace (they need only its id), so the
+  // chart draws after one round of requests.
+  const series = useTraceSeries(traceId, window, CHART_POINTS);
+  const events = useTraceEvents(traceId);
+  // Figures come after the chart: exact percentiles of a long window are work for the server.
   const stats = useTraceStats(
     traceId,
     window,
-    onThresholdA,
-    Boolean(trace.data && trace.data.sampleCount > 0) && !events.isPending,
+    figuresRequest(trace.data, window, events.data),
+    Boolean(trace.data && trace.data.sampleCount > 0) && !series.isPending && !events.isPending,
   );
   const circuit = useTraceCircuit(trace.data?.circuitId ?? null);
   const { canEdit } = useAbilities();
@@ -180,6 +212,7 @@ export default function TracePage() {
         <Panel title="Current" titleId="chart-title">
           <TraceChartPanel
             trace={t}
+            series={series}
             window={window}
             onWindowChange={(w) => setView(w)}
             events={rows}

@@ -9,6 +9,16 @@ export type TraceStats = components['schemas']['TraceStats'];
 /** A window in epoch ms; null means the whole trace. */
 export type TraceWindow = { from: number; to: number } | null;
 
+/** Buckets asked for: about one per horizontal pixel of the chart at 1280 px (more buys nothing). */
+export const CHART_POINTS = 1200;
+
+/** The zoom window kept in the page's address (`?from=…&to=…`, epoch ms), or null for the whole trace. */
+export function windowFromSearch(params: URLSearchParams): TraceWindow {
+  const from = Number(params.get('from'));
+  const to = Number(params.get('to'));
+  return params.has('from') && params.has('to') && Number.isFinite(from) && to > from ? { from, to } : null;
+}
+
 /**
  * The chart envelope for a window: at most `points` buckets of min/max/mean, built on the server from
  * chunk summaries, so any window of any trace costs the same to draw.
@@ -37,27 +47,34 @@ export const traceEventsOptions = (traceId: string) =>
 export const useTraceEvents = (traceId: string, enabled = true) =>
   useQuery({ ...traceEventsOptions(traceId), enabled });
 
-/**
- * Statistics of the whole trace or a window; percentiles are asked for (exact, from the samples), and the
- * duty cycle when the on-threshold of the event detection is known.
- */
-export const traceStatsOptions = (traceId: string, window: TraceWindow, onThresholdA: number | null) =>
+/** Exact percentiles read the window's samples; the duty cycle needs the on-threshold of the event detection. */
+export interface StatsRequest {
+  percentiles: boolean;
+  onThresholdA: number | null;
+}
+
+/** Statistics of the whole trace or a window. */
+export const traceStatsOptions = (traceId: string, window: TraceWindow, request: StatsRequest) =>
   queryOptions({
-    queryKey: ['traces', 'detail', traceId, 'stats', { window, onThresholdA }],
+    queryKey: ['traces', 'detail', traceId, 'stats', { window, ...request }],
     queryFn: () =>
       unwrap(
         sdk.GET('/traces/{traceId}/stats', {
           params: {
             path: { traceId },
-            query: { percentiles: 'true', ...(window ?? {}), ...(onThresholdA !== null ? { onThresholdA } : {}) },
+            query: {
+              ...(window ?? {}),
+              ...(request.percentiles ? { percentiles: 'true' as const } : {}),
+              ...(request.onThresholdA !== null ? { onThresholdA: request.onThresholdA } : {}),
+            },
           },
         }),
       ),
     staleTime: 60_000,
   });
 
-export const useTraceStats = (traceId: string, window: TraceWindow, onThresholdA: number | null, enabled = true) =>
-  useQuery({ ...traceStatsOptions(traceId, window, onThresholdA), placeholderData: keepPreviousData, enabled });
+export const useTraceStats = (traceId: string, window: TraceWindow, request: StatsRequest, enabled = true) =>
+  useQuery({ ...traceStatsOptions(traceId, window, request), placeholderData: keepPreviousData, enabled });
 
 /** The current above which the event detection counted the load as on (from the events answer), or null. */
 export function onThresholdOf(events: TraceEvents | undefined): number | null {

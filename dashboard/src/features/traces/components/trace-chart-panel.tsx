@@ -2,23 +2,22 @@ import { useMemo, useState } from 'react';
 import { EnvelopeChart, type ChartEvent, type ChartLimit } from '../../../components/charts/envelope-chart';
 import type { TimeWindow } from '../../../components/charts/envelope';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/ui/states';
-import { useTraceSeries } from '../api/trace-data';
+import type { UseQueryResult } from '@tanstack/react-query';
+import type { TraceSeries } from '../api/trace-data';
 import type { Trace } from '../api/traces';
 import type { TraceEventRow } from './events-table';
 import { envelopeOf, type EnvelopeMode } from '../utils/envelope-of';
 
-/** Buckets asked for: about one per horizontal pixel of the chart at 1280 px (more buys nothing). */
-export const CHART_POINTS = 1200;
-
 type Mode = EnvelopeMode;
 
 /**
- * The trace's chart: fetches the envelope of the visible window (a finer one after every zoom or pan) and
- * draws it with the events and the circuit's limits. Waveform traces can switch between the half-cycle
+ * The trace's chart: draws the envelope of the visible window (the page fetches a finer one after every
+ * zoom or pan) with the events and the circuit's limits. Waveform traces can switch between the half-cycle
  * RMS series and the instantaneous values.
  */
 export function TraceChartPanel({
   trace,
+  series,
   window,
   onWindowChange,
   events,
@@ -27,6 +26,8 @@ export function TraceChartPanel({
   limits,
 }: {
   trace: Trace;
+  /** The envelope query, started by the page together with the trace's (not after it). */
+  series: UseQueryResult<TraceSeries>;
   window: TimeWindow | null;
   onWindowChange: (w: TimeWindow | null) => void;
   events: TraceEventRow[];
@@ -35,7 +36,6 @@ export function TraceChartPanel({
   limits: ChartLimit[];
 }) {
   const [mode, setMode] = useState<Mode>(trace.kind === 'waveform' ? 'rms' : 'instantaneous');
-  const series = useTraceSeries(trace.id, window, CHART_POINTS, trace.sampleCount > 0);
   const bounds = useMemo<TimeWindow | null>(
     () =>
       trace.firstSampleTime !== null && trace.lastSampleTime !== null
