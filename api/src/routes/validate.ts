@@ -22,20 +22,28 @@ export function zodIssuesToFieldErrors(issues: readonly z.core.$ZodIssue[], part
 
 /**
  * Paths of the strings in a request value that hold U+0000. PostgreSQL cannot store it in text and
- * Sequelize's inlined SQLite literals end at it, so it is refused at the door. Iterative: a hostile body
- * may nest thousands of levels deep.
+ * Sequelize's inlined SQLite literals end at it, so it is refused at the door. Iterative, and a path is
+ * only spelled out for a hit: a hostile body may nest a hundred thousand levels deep.
  */
 export function nulCharacterPaths(value: unknown): PropertyKey[][] {
+  type Item = { value: unknown; key: PropertyKey; parent: Item | null };
+  const pathOf = (item: Item | null): PropertyKey[] => {
+    const path: PropertyKey[] = [];
+    for (let i = item; i && i.parent; i = i.parent) path.push(i.key);
+    return path.reverse();
+  };
   const found: PropertyKey[][] = [];
-  const stack: Array<{ value: unknown; path: PropertyKey[] }> = [{ value, path: [] }];
+  const stack: Item[] = [{ value, key: '', parent: null }];
   while (stack.length > 0 && found.length < 20) {
     const item = stack.pop()!;
     if (typeof item.value === 'string') {
-      if (item.value.includes('\u0000')) found.push(item.path);
+      if (item.value.includes('\u0000')) found.push(pathOf(item));
     } else if (item.value && typeof item.value === 'object') {
+      const isArray = Array.isArray(item.value);
       for (const [key, child] of Object.entries(item.value)) {
-        if (key.includes('\u0000')) found.push([...item.path, key]);
-        stack.push({ value: child, path: [...item.path, Array.isArray(item.value) ? Number(key) : key] });
+        const childItem: Item = { value: child, key: isArray ? Number(key) : key, parent: item };
+        if (key.includes('\u0000')) found.push(pathOf(childItem));
+        stack.push(childItem);
       }
     }
   }
