@@ -335,10 +335,13 @@ class JsonSampleParser {
     }
     const tokenEnd = this.bareEnd(buf, p, end, final);
     if (tokenEnd < 0) return -1;
-    const text = buf.toString('latin1', p, Math.min(tokenEnd, p + 10));
-    if (text === 'null' || text === 'true' || text === 'false') {
-      const index = key === 't' ? this.timeCount : this.valueCount;
-      this.invalid([{ detail: `must be a ${key === 't' ? 'timestamp' : 'number'}, not ${text}`, pointer: `/${key}/${index}` }]);
+    // n, t, f: the literals null, true, false (checked only then, so numbers make no string).
+    if (b === 110 || b === 116 || b === 102) {
+      const text = buf.toString('latin1', p, Math.min(tokenEnd, p + 10));
+      if (text === 'null' || text === 'true' || text === 'false') {
+        const index = key === 't' ? this.timeCount : this.valueCount;
+        this.invalid([{ detail: `must be a ${key === 't' ? 'timestamp' : 'number'}, not ${text}`, pointer: `/${key}/${index}` }]);
+      }
     }
     const value = this.number(buf, p, tokenEnd);
     if (key === 't') this.addTime(null, value);

@@ -35,7 +35,7 @@ export function createTraceCloser(deps: { db: Db; store: ChunkStore; analysisSet
     if (trace.sampleCount > MAX_ANALYSED_SAMPLES) {
       throw new Problem('conflict', `The trace holds ${trace.sampleCount} samples; analysis is limited to ${MAX_ANALYSED_SAMPLES} samples per trace`);
     }
-    const rows = await store.readSummaries(trace.id, trace.chunkCount, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY);
+    const rows = await store.readSummaries(trace.id, trace.chunkCount, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY, trace.sampleCount);
     return readWindowSamples(store, trace.id, rows, trace.originUs as number, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY);
   }
 

@@ -17,7 +17,8 @@ import { readJsonSamples } from '../ingest/json-samples.js';
 import { readNdjsonSamples } from '../ingest/ndjson-samples.js';
 import type { UniformStart } from '../ingest/sample-sink.js';
 import { TimestampReader, parseInstantUs, parseUtcOffset, type TimeFormat } from '../ingest/timestamps.js';
-import { startBatch, type BatchResult, type BatchWriter } from '../storage/batch-writer.js';
+import { startBatch, type BatchResult, type BatchWriter, type LastChunkData } from '../storage/batch-writer.js';
+import type { ChunkSummaryRow } from '../storage/summary-rows.js';
 import type { ChunkStore } from '../storage/chunk-store.js';
 import { presentAnalysis } from './analysis-view.js';
 import type { TraceCloser } from './traces-close.js';
@@ -103,6 +104,20 @@ export function createTraceIngest(deps: IngestDeps) {
   const limitBytes = parseByteSize(config.sampleBodyLimit);
   /** Traces whose pending chunks left by an earlier process have been cleared in this one. */
   const cleared = new Set<string>();
+  /**
+   * The last chunk of recently written traces (row and samples), so the next batch need not read it
+   * back to top it up. Valid only while the trace still has the counts it was stored with.
+   */
+  const lastChunks = new Map<string, { chunkCount: number; sampleCount: number; row: ChunkSummaryRow; data: LastChunkData }>();
+  const LAST_CHUNKS_KEPT = 1000;
+
+  function rememberLastChunk(traceId: string, writer: BatchWriter, batch: BatchResult): void {
+    const last = writer.lastChunkAfter();
+    lastChunks.delete(traceId);
+    if (!last) return;
+    if (lastChunks.size >= LAST_CHUNKS_KEPT) lastChunks.delete(lastChunks.keys().next().value as string);
+    lastChunks.set(traceId, { chunkCount: batch.state.chunkCount, sampleCount: batch.state.sampleCount, ...last });
+  }
 
   function replayed(r: Replay) {
     return { status: r.status, body: r.body, replayed: true };
@@ -114,7 +129,17 @@ export function createTraceIngest(deps: IngestDeps) {
       await store.discardPending(trace.id, trace.chunkCount);
       cleared.add(trace.id);
     }
-    return startBatch({ traceId: trace.id, organisationId: trace.organisationId, store, state: storageState(trace), sampleRateHz: trace.sampleRateHz });
+    const known = lastChunks.get(trace.id);
+    const fresh = known && known.chunkCount === trace.chunkCount && known.sampleCount === trace.sampleCount ? known : undefined;
+    return startBatch({
+      traceId: trace.id,
+      organisationId: trace.organisationId,
+      store,
+      state: storageState(trace),
+      sampleRateHz: trace.sampleRateHz,
+      lastChunk: fresh?.row,
+      lastChunkData: fresh?.data,
+    });
   }
 
   function timestampReader(trace: Trace, options: SampleReadOptions, csv: boolean): TimestampReader {
@@ -226,8 +251,10 @@ export function createTraceIngest(deps: IngestDeps) {
         answer = respond(appendResult(trace, result, read), result);
         return ctx ? idempotency.record(scope, ctx, fingerprint, status, answer) : null;
       });
+      rememberLastChunk(trace.id, writer, batch);
       return { batch, answer };
     } catch (err) {
+      lastChunks.delete(trace.id);
       await writer.abort();
       throw err;
     }

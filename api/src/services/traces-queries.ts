@@ -65,7 +65,7 @@ export function createTraceQueries(deps: { db: Db; store: ChunkStore; find: (sco
 
   /** Samples of a window as amperes with their axis (bounded by MAX_WINDOW_SAMPLES_READ). */
   async function windowAmps(trace: Trace, fromUs: number, toUs: number) {
-    const rows = await store.readSummaries(trace.id, trace.chunkCount, fromUs, toUs);
+    const rows = await store.readSummaries(trace.id, trace.chunkCount, fromUs, toUs, trace.sampleCount);
     const count = rows.reduce((n, r) => n + r.count, 0);
     if (count > MAX_WINDOW_SAMPLES_READ) {
       throw new Problem('validation', `The window holds about ${count} samples; exact percentiles read at most ${MAX_WINDOW_SAMPLES_READ}. Choose a shorter window.`, {
@@ -205,7 +205,7 @@ export function createTraceQueries(deps: { db: Db; store: ChunkStore; find: (sco
       checkWindow(window);
       const trace = await find(scope, id);
       const range = windowUs(trace, window);
-      const rows = range && range.toUs >= range.fromUs ? await store.readSummaries(trace.id, trace.chunkCount, range.fromUs, range.toUs) : [];
+      const rows = range && range.toUs >= range.fromUs ? await store.readSummaries(trace.id, trace.chunkCount, range.fromUs, range.toUs, trace.sampleCount) : [];
       const scale = values === 'amps' ? ampsPerUnit(trace) : 1;
       const unit = values === 'amps' ? 'A' : trace.probe.inputUnit;
       const format1 = values === 'amps' ? (v: number) => String(v * scale) : formatFloat32;

@@ -44,7 +44,13 @@ export function originMs(trace: Trace): number {
 export const msOf = (us: number | null | undefined): number | null => (us === null || us === undefined ? null : us / 1000);
 
 export function storedTrace(trace: Trace): StoredTrace {
-  return { traceId: trace.id, chunkCount: trace.chunkCount ?? 0, originUs: trace.originUs ?? null, gapThresholdS: trace.gapThresholdS ?? null };
+  return {
+    traceId: trace.id,
+    chunkCount: trace.chunkCount ?? 0,
+    sampleCount: trace.sampleCount ?? 0,
+    originUs: trace.originUs ?? null,
+    gapThresholdS: trace.gapThresholdS ?? null,
+  };
 }
 
 export function storageState(trace: Trace): TraceStorageState {

@@ -10,6 +10,7 @@ import type { Config } from '../config/config.js';
 import type { Db } from '../db/open.js';
 import { Problem, invalid, notFound } from '../errors/problem.js';
 import type { Trace, TraceKind, TraceStatus } from '../models/trace.js';
+import { CachedChunkStore } from '../storage/cached-chunk-store.js';
 import type { ChunkStore } from '../storage/chunk-store.js';
 import { SequelizeChunkStore } from '../storage/sequelize-chunk-store.js';
 import { SqliteChunkStore } from '../storage/sqlite-chunk-store.js';
@@ -79,7 +80,7 @@ function decodeCursor(cursor: string): [string | null, string] {
 
 export function createTracesService(db: Db, config: Config) {
   const { Trace, Site, Circuit, Load } = db.models;
-  const store: ChunkStore = db.dialect === 'postgres' ? new SequelizeChunkStore(db) : new SqliteChunkStore(db.sequelize);
+  const store: ChunkStore = new CachedChunkStore(db.dialect === 'postgres' ? new SequelizeChunkStore(db) : new SqliteChunkStore(db.sequelize));
   const queue = new KeyedQueue();
   const idempotency = createIdempotencyStore(db);
 

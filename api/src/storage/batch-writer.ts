@@ -4,10 +4,11 @@
  * mergeable summary, writes full groups of chunks as pending while the body is still arriving, and
  * makes the whole batch visible in one final transaction (see chunk-store.ts).
  *
- * Chunks stay full: when the trace's last chunk is not full and the batch continues it in the same
- * encoding (explicit times after explicit times, or the same uniform run), the batch first tops it
- * up; the rewritten chunk replaces the old one in the final transaction. So a device posting one
- * reading a second still fills 4,096-sample chunks.
+ * Chunks stay full for small batches: when the trace's last chunk is not full, the batch continues it
+ * in the same encoding (explicit times after explicit times, or the same uniform run) and the batch
+ * fits in the room left, the batch tops it up; the rewritten chunk replaces the old one in the final
+ * transaction. So a device posting one reading a second still fills 4,096-sample chunks, while a large
+ * batch never rewrites what is stored.
  */
 import { mergeSummaries, mergeSummaryList } from '../analysis/stats/merge-summaries.js';
 import { summarise, type SampleSummary } from '../analysis/stats/sample-summary.js';
@@ -39,6 +40,8 @@ export interface BatchWriterOptions {
   state: TraceStorageState;
   /** The trace's last committed chunk (its summary row), when it has one. */
   lastChunk: ChunkSummaryRow | null;
+  /** Its samples, when the caller has them (read from the store otherwise, when needed). */
+  lastChunkData?: LastChunkData | null | undefined;
   /** Gap threshold (s) to use when the trace has none yet: 2.5 / sample rate when the trace states one. */
   defaultGapThresholdS: number | null;
   flushSamples?: number;
@@ -50,6 +53,12 @@ export interface BatchResult {
   firstUs: number;
   lastUs: number;
   state: TraceStorageState;
+}
+
+/** The samples of a trace's last chunk: raw values and, for explicit chunks, times in µs. */
+export interface LastChunkData {
+  values: Float32Array;
+  timesUs: Float64Array | null;
 }
 
 /** Where a pushed run of samples sits in time. */
@@ -102,6 +111,8 @@ export class BatchWriter {
   private started = false;
   private lastExplicit: boolean;
   private readonly scratchTimesS = new Float64Array(CHUNK_SAMPLES);
+  /** The last chunk encoded: after a commit, the trace's last chunk. */
+  private lastEncoded: { row: ChunkSummaryRow; data: LastChunkData } | null = null;
 
   constructor(private readonly options: BatchWriterOptions) {
     this.flushSamples = options.flushSamples ?? DEFAULT_FLUSH_SAMPLES;
@@ -195,11 +206,17 @@ export class BatchWriter {
     if (!last || last.count >= CHUNK_SAMPLES || last.encoding !== encoding) return;
     if (encoding === 'uniform' && !(run && run.nextIndex === (last.runOffset ?? -1) + last.count && run.startUs === last.runStartUs)) return;
     if (encoding === 'explicit' && !this.lastExplicit) return;
-    const [data] = await this.options.store.readData(this.options.traceId, last.seq, last.seq);
-    if (!data) return;
     const chunk = this.newChunk(encoding, run, last.seq, true);
-    decodeSamples(data.samples, chunk.values);
-    if (chunk.timesUs) decodeTimes(data.times ?? Buffer.alloc(0), last.firstUs, last.count, chunk.timesUs);
+    const known = this.options.lastChunkData;
+    if (known && known.values.length === last.count) {
+      chunk.values.set(known.values);
+      if (chunk.timesUs && known.timesUs) chunk.timesUs.set(known.timesUs);
+    } else {
+      const [data] = await this.options.store.readData(this.options.traceId, last.seq, last.seq);
+      if (!data) return;
+      decodeSamples(data.samples, chunk.values);
+      if (chunk.timesUs) decodeTimes(data.times ?? Buffer.alloc(0), last.firstUs, last.count, chunk.timesUs);
+    }
     if (encoding === 'uniform') chunk.runOffset = last.runOffset ?? 0;
     chunk.count = last.count;
     chunk.oldCount = last.count;
@@ -237,17 +254,33 @@ export class BatchWriter {
 
   /** The chunk the next samples go into: the open one if it fits, else a fresh one (closing the old). */
   private async chunkFor(encoding: 'uniform' | 'explicit', run: Run | null): Promise<OpenChunk> {
-    const open = this.open;
-    const fits =
-      open !== null &&
-      open.count < CHUNK_SAMPLES &&
-      open.encoding === encoding &&
-      (encoding === 'explicit' || (run !== null && open.runStartUs === run.startUs && open.rateHz === run.rateHz && open.runOffset + open.count === run.nextIndex));
-    if (fits) return open;
+    let open = this.open;
+    const continues = (c: OpenChunk) =>
+      c.encoding === encoding &&
+      (encoding === 'explicit' || (run !== null && c.runStartUs === run.startUs && c.rateHz === run.rateHz && c.runOffset + c.count === run.nextIndex));
+    if (open !== null && open.replaces && open.count >= CHUNK_SAMPLES && continues(open)) {
+      // The batch does not fit in the room the stored last chunk had: leave that chunk as it is and
+      // give this batch's samples a chunk of their own (only batches that fit top it up).
+      open = this.detachTopUp(open);
+      this.open = open;
+    }
+    if (open !== null && open.count < CHUNK_SAMPLES && continues(open)) return open;
     if (open) await this.close(open);
     const chunk = this.newChunk(encoding, run, this.nextSeq++, false);
     this.open = chunk;
     return chunk;
+  }
+
+  /** A new chunk holding the samples this batch had put after the stored last chunk's own. */
+  private detachTopUp(topUp: OpenChunk): OpenChunk {
+    const fresh = this.newChunk(topUp.encoding, null, this.nextSeq++, false);
+    fresh.values.set(topUp.values.subarray(topUp.oldCount, topUp.count));
+    if (fresh.timesUs && topUp.timesUs) fresh.timesUs.set(topUp.timesUs.subarray(topUp.oldCount, topUp.count));
+    fresh.count = topUp.count - topUp.oldCount;
+    fresh.runStartUs = topUp.runStartUs;
+    fresh.rateHz = topUp.rateHz;
+    fresh.runOffset = topUp.runOffset + topUp.oldCount;
+    return fresh;
   }
 
   private axisOf(chunk: OpenChunk): TimeAxis {
@@ -294,7 +327,7 @@ export class BatchWriter {
     const lastUs = uniform
       ? timeOfRunIndex({ startUs: chunk.runStartUs, rateHz: chunk.rateHz }, chunk.runOffset + chunk.count - 1)
       : (chunk.timesUs![chunk.count - 1] as number);
-    return {
+    const stored: StoredChunk = {
       row: {
         seq: chunk.seq,
         encoding: chunk.encoding,
@@ -309,6 +342,14 @@ export class BatchWriter {
       times: uniform ? null : encodeTimes(chunk.timesUs!, 0, chunk.count),
       samples: encodeSamples(chunk.values, 0, chunk.count),
     };
+    // Chunk arrays are never reused, so keeping views of them is safe.
+    this.lastEncoded = { row: stored.row, data: { values, timesUs: chunk.timesUs ? chunk.timesUs.subarray(0, chunk.count) : null } };
+    return stored;
+  }
+
+  /** The trace's last chunk once this batch is committed (row and samples), for the next batch. */
+  lastChunkAfter(): { row: ChunkSummaryRow; data: LastChunkData } | null {
+    return this.lastEncoded;
   }
 
   /**
@@ -377,12 +418,13 @@ export class BatchWriter {
  * run) and takes the default gap threshold from the trace's stated sample rate.
  */
 export async function startBatch(
-  options: Omit<BatchWriterOptions, 'lastChunk' | 'defaultGapThresholdS'> & { sampleRateHz: number | null },
+  options: Omit<BatchWriterOptions, 'lastChunk' | 'defaultGapThresholdS'> & { sampleRateHz: number | null; lastChunk?: ChunkSummaryRow | undefined },
 ): Promise<BatchWriter> {
-  const { state, store, sampleRateHz, ...rest } = options;
+  const { state, store, sampleRateHz, lastChunk, ...rest } = options;
   const last =
-    state.chunkCount > 0 && state.lastSampleUs !== null
+    lastChunk ??
+    (state.chunkCount > 0 && state.lastSampleUs !== null
       ? ((await store.readSummaries(rest.traceId, state.chunkCount, state.lastSampleUs, state.lastSampleUs)).at(-1) ?? null)
-      : null;
+      : null);
   return new BatchWriter({ ...rest, store, state, lastChunk: last, defaultGapThresholdS: sampleRateHz ? DEFAULT_GAP_FACTOR / sampleRateHz : null });
 }

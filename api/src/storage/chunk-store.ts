@@ -81,8 +81,11 @@ export interface ChunkStore {
   commit(batch: BatchCommit): Promise<boolean>;
   /** Deletes chunks with seq ≥ fromSeq (a failed or abandoned batch). */
   discardPending(traceId: string, fromSeq: number): Promise<void>;
-  /** Summary rows of committed chunks (seq < chunkCount) that hold a sample in [fromUs, toUs], in order. */
-  readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number): Promise<ChunkSummaryRow[]>;
+  /**
+   * Summary rows of committed chunks (seq < chunkCount) that hold a sample in [fromUs, toUs], in order.
+   * `sampleCount`, the trace's read together with chunkCount, lets a caching store answer from memory.
+   */
+  readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number, sampleCount?: number): Promise<ChunkSummaryRow[]>;
   /** Samples and times of chunks seq ∈ [fromSeq, toSeq], in order. */
   readData(traceId: string, fromSeq: number, toSeq: number): Promise<ChunkData[]>;
   /** Envelope blobs of chunks seq ∈ [fromSeq, toSeq], in order, with their times blobs when asked. */

@@ -128,24 +128,23 @@ function countGapsUpperBound(rows: ChunkSummaryRow[], gapUs: number | null): num
 export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: number, toUs: number, points: number): Promise<Envelope> {
   const empty: Envelope = { level: 'samples', sampleCount: 0, buckets: new BucketBuilder(1, null).out };
   if (trace.chunkCount === 0) return empty;
-  const rows = await store.readSummaries(trace.traceId, trace.chunkCount, fromUs, toUs);
+  const rows = await store.readSummaries(trace.traceId, trace.chunkCount, fromUs, toUs, trace.sampleCount);
   if (rows.length === 0) return empty;
 
   // Edge chunks partly outside the window are decoded; every other chunk counts whole.
   const edges = new Map<number, { chunk: DecodedChunk; from: number; to: number }>();
   let sampleCount = 0;
-  for (const row of rows) {
-    if (chunkInside(row, fromUs, toUs)) {
-      sampleCount += row.count;
-      continue;
-    }
-    const [data] = await store.readData(trace.traceId, row.seq, row.seq);
+  const edgeRows = rows.filter((row) => !chunkInside(row, fromUs, toUs));
+  for (const row of rows) if (chunkInside(row, fromUs, toUs)) sampleCount += row.count;
+  const edgeData = await Promise.all(edgeRows.map((row) => store.readData(trace.traceId, row.seq, row.seq)));
+  edgeRows.forEach((row, k) => {
+    const data = edgeData[k]?.[0];
     if (!data) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no data`);
     const chunk = decodeChunk(row, data);
     const range = indexRangeInWindow(chunk, fromUs, toUs);
     edges.set(row.seq, { chunk, ...range });
     sampleCount += Math.max(0, range.to - range.from);
-  }
+  });
   if (sampleCount === 0) return empty;
 
   const gapUs = trace.gapThresholdS === null ? null : trace.gapThresholdS * 1e6;

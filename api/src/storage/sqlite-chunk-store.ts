@@ -19,6 +19,12 @@ import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, IdempotencyReco
 import { SUMMARY_COLUMNS, type ChunkSummaryRow } from './summary-rows.js';
 
 type Param = string | number | null | Buffer;
+type Statement = [sql: string, params: Param[]];
+/** Statements run together, and an optional check of their change counts (false: roll back). */
+interface Stage {
+  statements: Statement[];
+  check?: (changes: number[]) => boolean;
+}
 
 const SUMMARY_INSERT_COLUMNS = ['traceId', 'seq', 'organisationId', ...SUMMARY_COLUMNS];
 const DATA_INSERT_COLUMNS = ['traceId', 'seq', 'envelope', 'times', 'samples'];
@@ -44,6 +50,31 @@ function run(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<n
     conn.run(sql, params, function (this: { changes: number }, err: Error | null) {
       if (err) reject(err);
       else resolve(this.changes);
+    });
+  });
+}
+
+/**
+ * Runs the statements in order on `conn` (serialize mode) without waiting between them; resolves
+ * with each one's change count, or rejects with the first error once all have run.
+ */
+function pipeline(conn: SqliteDatabase, statements: Statement[]): Promise<number[]> {
+  return new Promise((resolve, reject) => {
+    const changes: number[] = new Array(statements.length).fill(0);
+    let pending = statements.length;
+    let failure: Error | null = null;
+    if (pending === 0) resolve(changes);
+    conn.serialize(() => {
+      statements.forEach(([sql, params], k) => {
+        conn.run(sql, params, function (this: { changes: number }, err: Error | null) {
+          if (err) failure ??= err;
+          else changes[k] = this.changes;
+          if (--pending === 0) {
+            if (failure) reject(failure);
+            else resolve(changes);
+          }
+        });
+      });
     });
   });
 }
@@ -74,22 +105,50 @@ export class SqliteChunkStore implements ChunkStore {
     return this.manager.getConnection({ uuid: 'headroom-chunk-reader' });
   }
 
-  /** Runs `work` in one write transaction, after every earlier one has finished. */
-  private write<T>(work: (conn: SqliteDatabase) => Promise<T>): Promise<T> {
+  /**
+   * Runs the stages in one write transaction, after every earlier transaction has finished: BEGIN
+   * IMMEDIATE on its own (the statement that waits for the write lock), then each stage in turn, its
+   * statements queued at once (serialize mode: one trip through the sqlite3 worker thread for the
+   * stage, not one per statement), then COMMIT — or ROLLBACK when a statement fails or a stage's check
+   * refuses its change counts. Returns whether it committed.
+   *
+   * Only statements that are harmless on their own go in a stage together (inserts of new chunks at
+   * places no reader sees): should SQLite abandon the transaction on a disk error, the statements
+   * after the failing one in the same stage would run outside it.
+   */
+  private transact(stages: Stage[]): Promise<boolean> {
     const next = this.writeQueue.then(async () => {
+      const runStages = async (conn: SqliteDatabase): Promise<boolean> => {
+        for (const stage of stages) {
+          const changes = await pipeline(conn, stage.statements);
+          if (stage.check && !stage.check(changes)) return false;
+        }
+        return true;
+      };
       if (this.inMemory) {
-        return this.sequelize.transaction(async (transaction) => work((transaction as unknown as { connection: SqliteDatabase }).connection));
+        const refused = new Error('refused');
+        try {
+          await this.sequelize.transaction(async (transaction) => {
+            if (!(await runStages((transaction as unknown as { connection: SqliteDatabase }).connection))) throw refused;
+          });
+          return true;
+        } catch (err) {
+          if (err === refused) return false;
+          throw err;
+        }
       }
       const conn = await this.manager.getConnection({ uuid: 'headroom-chunk-writer' });
       await run(conn, 'BEGIN IMMEDIATE');
+      let committed = false;
       try {
-        const result = await work(conn);
-        await run(conn, 'COMMIT');
-        return result;
-      } catch (err) {
-        await run(conn, 'ROLLBACK').catch(() => undefined);
-        throw err;
+        if (await runStages(conn)) {
+          await run(conn, 'COMMIT');
+          committed = true;
+        }
+      } finally {
+        if (!committed) await run(conn, 'ROLLBACK').catch(() => undefined);
       }
+      return committed;
     });
     this.writeQueue = next.catch(() => undefined);
     return next;
@@ -105,7 +164,9 @@ export class SqliteChunkStore implements ChunkStore {
     return sql;
   }
 
-  private async insertChunks(conn: SqliteDatabase, traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
+  /** INSERT statements for chunks (two tables, up to ROWS_PER_INSERT rows each). */
+  private insertChunks(traceId: string, organisationId: string, chunks: StoredChunk[]): Statement[] {
+    const statements: Statement[] = [];
     for (let start = 0; start < chunks.length; start += ROWS_PER_INSERT) {
       const group = chunks.slice(start, start + ROWS_PER_INSERT);
       const summaryParams: Param[] = [];
@@ -115,53 +176,60 @@ export class SqliteChunkStore implements ChunkStore {
         for (const column of SUMMARY_COLUMNS) summaryParams.push(c.row[column]);
         dataParams.push(traceId, c.row.seq, c.envelope, c.times, c.samples);
       }
-      await run(conn, this.cachedInsertSql('trace_chunks', SUMMARY_INSERT_COLUMNS, group.length), summaryParams);
-      await run(conn, this.cachedInsertSql('trace_chunk_data', DATA_INSERT_COLUMNS, group.length), dataParams);
+      statements.push([this.cachedInsertSql('trace_chunks', SUMMARY_INSERT_COLUMNS, group.length), summaryParams]);
+      statements.push([this.cachedInsertSql('trace_chunk_data', DATA_INSERT_COLUMNS, group.length), dataParams]);
     }
+    return statements;
   }
 
   async insertPending(traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
     if (chunks.length === 0) return;
-    await this.write((conn) => this.insertChunks(conn, traceId, organisationId, chunks));
+    await this.transact([{ statements: this.insertChunks(traceId, organisationId, chunks) }]);
   }
 
   commit(batch: BatchCommit): Promise<boolean> {
-    return this.write(async (conn) => {
-      const s = batch.state;
-      const changed = await run(
-        conn,
-        `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
-           "gapThresholdS" = ?, "summary" = ?, "updatedAt" = ?
-         WHERE "id" = ? AND "organisationId" = ? AND "status" = 'open' AND "chunkCount" = ?`,
-        [
-          s.sampleCount, s.chunkCount, s.originUs, s.firstSampleUs, s.lastSampleUs, s.gapThresholdS,
-          s.summary === null ? null : JSON.stringify(s.summary), sqliteDate(new Date()),
-          batch.traceId, batch.organisationId, batch.expectedChunkCount,
+    const s = batch.state;
+    const stages: Stage[] = [
+      // New chunks first, all at once: until the UPDATE below raises chunkCount no reader sees them.
+      { statements: this.insertChunks(batch.traceId, batch.organisationId, batch.chunks) },
+      {
+        statements: [
+          [
+            `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
+               "gapThresholdS" = ?, "summary" = ?, "updatedAt" = ?
+             WHERE "id" = ? AND "organisationId" = ? AND "status" = 'open' AND "chunkCount" = ?`,
+            [
+              s.sampleCount, s.chunkCount, s.originUs, s.firstSampleUs, s.lastSampleUs, s.gapThresholdS,
+              s.summary === null ? null : JSON.stringify(s.summary), sqliteDate(new Date()),
+              batch.traceId, batch.organisationId, batch.expectedChunkCount,
+            ],
+          ],
         ],
-      );
-      if (changed !== 1) return false;
-      if (batch.replaceLast) {
-        const c = batch.replaceLast;
-        await run(
-          conn,
-          `UPDATE trace_chunks SET ${SUMMARY_COLUMNS.map((n) => `"${n}" = ?`).join(', ')} WHERE "traceId" = ? AND "seq" = ?`,
-          [...SUMMARY_COLUMNS.map((n) => c.row[n]), batch.traceId, c.row.seq],
-        );
-        await run(conn, 'UPDATE trace_chunk_data SET "envelope" = ?, "times" = ?, "samples" = ? WHERE "traceId" = ? AND "seq" = ?', [
-          c.envelope, c.times, c.samples, batch.traceId, c.row.seq,
-        ]);
-      }
-      await this.insertChunks(conn, batch.traceId, batch.organisationId, batch.chunks);
-      if (batch.idempotency) await insertIdempotency(conn, batch.idempotency);
-      return true;
-    });
+        check: (changes) => changes[0] === 1,
+      },
+    ];
+    const c = batch.replaceLast;
+    if (c) {
+      stages.push({
+        statements: [[`UPDATE trace_chunks SET ${SUMMARY_COLUMNS.map((n) => `"${n}" = ?`).join(', ')} WHERE "traceId" = ? AND "seq" = ?`, [...SUMMARY_COLUMNS.map((n) => c.row[n]), batch.traceId, c.row.seq]]],
+      });
+      stages.push({
+        statements: [['UPDATE trace_chunk_data SET "envelope" = ?, "times" = ?, "samples" = ? WHERE "traceId" = ? AND "seq" = ?', [c.envelope, c.times, c.samples, batch.traceId, c.row.seq]]],
+      });
+    }
+    if (batch.idempotency) stages.push({ statements: [idempotencyInsert(batch.idempotency)] });
+    return this.transact(stages);
   }
 
   async discardPending(traceId: string, fromSeq: number): Promise<void> {
-    await this.write(async (conn) => {
-      await run(conn, 'DELETE FROM trace_chunk_data WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]);
-      await run(conn, 'DELETE FROM trace_chunks WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]);
-    });
+    await this.transact([
+      {
+        statements: [
+          ['DELETE FROM trace_chunk_data WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]],
+          ['DELETE FROM trace_chunks WHERE "traceId" = ? AND "seq" >= ?', [traceId, fromSeq]],
+        ],
+      },
+    ]);
   }
 
   async readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number): Promise<ChunkSummaryRow[]> {
@@ -191,10 +259,9 @@ export class SqliteChunkStore implements ChunkStore {
   }
 }
 
-async function insertIdempotency(conn: SqliteDatabase, r: IdempotencyRecord): Promise<void> {
-  await run(
-    conn,
+function idempotencyInsert(r: IdempotencyRecord): Statement {
+  return [
     'INSERT INTO idempotency_keys ("organisationId", "key", "operation", "fingerprint", "status", "response", "createdAt") VALUES (?, ?, ?, ?, ?, ?, ?)',
     [r.organisationId, r.key, r.operation, r.fingerprint, r.status, r.response, sqliteDate(new Date())],
-  );
+  ];
 }

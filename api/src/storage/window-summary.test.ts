@@ -10,6 +10,8 @@ import { SqliteChunkStore } from './sqlite-chunk-store.js';
 import { appendExplicit, makeTrace, summaryDifferences, writerFor } from './test-support.js';
 import { windowSummary } from './window-summary.js';
 import { CHUNK_SAMPLES } from './chunk-codec.js';
+import { CachedChunkStore } from './cached-chunk-store.js';
+import { storedTrace } from '../services/traces-view.js';
 
 /** A series with irregular steps and a few long gaps, split into batches; times in integer µs. */
 const seriesArb = fc.record({
@@ -40,6 +42,7 @@ function makeSeries(n: number, seed: number) {
 describe.each([
   ['sqlite', (db: Db) => new SqliteChunkStore(db.sequelize)],
   ['sequelize', (db: Db) => new SequelizeChunkStore(db)],
+  ['cached sqlite', (db: Db) => new CachedChunkStore(new SqliteChunkStore(db.sequelize))],
 ] as const)('window statistics from chunk summaries (%s store)', (_name, makeStore) => {
   let db: Db;
   let store: ChunkStore;
@@ -61,6 +64,8 @@ describe.each([
           const end = Math.min(n, at + size);
           await appendExplicit(store, trace, values.subarray(at, end), timesUs.subarray(at, end));
           at = end;
+          // Read between batches, so a caching store sees the trace grow and its last chunk topped up.
+          expect((await windowSummary(store, storedTrace(trace), -Infinity, Infinity))?.count).toBe(end);
         }
         expect(trace.sampleCount).toBe(n);
         const origin = trace.originUs as number;
@@ -72,7 +77,7 @@ describe.each([
         const from = timesUs.findIndex((t) => t >= fromUs);
         let to = n;
         while (to > 0 && (timesUs[to - 1] as number) > toUs) to--;
-        const actual = await windowSummary(store, { traceId: trace.id, chunkCount: trace.chunkCount, originUs: origin, gapThresholdS: trace.gapThresholdS }, fromUs, toUs);
+        const actual = await windowSummary(store, storedTrace(trace), fromUs, toUs);
         if (from < 0 || from >= to) {
           expect(actual).toBeNull();
           return;
@@ -83,7 +88,7 @@ describe.each([
         expect(summaryDifferences(actual!, expected)).toEqual([]);
 
         const points = 1 + (seed % 300);
-        const env = await envelope(store, { traceId: trace.id, chunkCount: trace.chunkCount, originUs: origin, gapThresholdS: trace.gapThresholdS }, fromUs, toUs, points);
+        const env = await envelope(store, storedTrace(trace), fromUs, toUs, points);
         expect(env.buckets.count.length).toBeLessThanOrEqual(points);
         expect(env.sampleCount).toBe(to - from);
         expect(env.buckets.count.reduce((x, y) => x + y, 0)).toBe(to - from);
@@ -103,7 +108,7 @@ describe.each([
     );
   });
 
-  it('when a uniform run arrives in batches, then its chunks stay full and its statistics equal the direct computation', async () => {
+  it('when a uniform run arrives in batches, then small batches top up the last chunk, large ones start their own, and statistics equal the direct computation', async () => {
     const trace = await makeTrace(db, 1000);
     const n = 3 * CHUNK_SAMPLES + 123;
     const values = Float32Array.from({ length: n }, (_, i) => Math.fround(10 * Math.sin((2 * Math.PI * 50 * i) / 1000)));
@@ -116,8 +121,9 @@ describe.each([
     await trace.reload();
     expect(trace.chunkCount).toBe(4);
     const rows = await store.readSummaries(trace.id, trace.chunkCount, -Infinity, Infinity);
-    expect(rows.map((r) => r.count)).toEqual([CHUNK_SAMPLES, CHUNK_SAMPLES, CHUNK_SAMPLES, 123]);
-    const stored = { traceId: trace.id, chunkCount: trace.chunkCount, originUs: trace.originUs, gapThresholdS: trace.gapThresholdS };
+    // 1000; +1 fits the room left; 7999 and 3411 do not fit theirs and start fresh chunks.
+    expect(rows.map((r) => r.count)).toEqual([1001, CHUNK_SAMPLES, 7999 - CHUNK_SAMPLES, 3411]);
+    const stored = storedTrace(trace);
     const actual = await windowSummary(store, stored, startUs + 1500, startUs + 11_000_000);
     const from = 2; // 1.5 ms after the start: samples at 2 ms and later
     const to = 11001;
@@ -133,7 +139,7 @@ describe.each([
     }
     expect(trace.chunkCount).toBe(1);
     expect(trace.gapThresholdS).toBe(2.5); // common practice, no source: 2.5 × the 1 s spacing (analysis DEFAULT_GAP_FACTOR)
-    const summary = await windowSummary(store, { traceId: trace.id, chunkCount: 1, originUs: trace.originUs, gapThresholdS: 2.5 }, -Infinity, Infinity);
+    const summary = await windowSummary(store, storedTrace(trace), -Infinity, Infinity);
     expect(summary?.count).toBe(10);
     expect(summary?.gapCount).toBe(1);
   });

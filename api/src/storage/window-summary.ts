@@ -7,7 +7,9 @@
  */
 import { mergeSummaryList } from '../analysis/stats/merge-summaries.js';
 import { summarise, type SampleSummary } from '../analysis/stats/sample-summary.js';
+import { CachedChunkStore, rowRange } from './cached-chunk-store.js';
 import { chunkAxis, chunkInside, decodeChunk, indexRangeInWindow } from './chunk-reader.js';
+import { SummaryTree } from './summary-tree.js';
 import type { ChunkStore } from './chunk-store.js';
 import { summaryOfRow, type ChunkSummaryRow } from './summary-rows.js';
 
@@ -15,18 +17,52 @@ import { summaryOfRow, type ChunkSummaryRow } from './summary-rows.js';
 export interface StoredTrace {
   traceId: string;
   chunkCount: number;
+  sampleCount: number;
   originUs: number | null;
   gapThresholdS: number | null;
 }
 
+/** Trees of cached row arrays (an array stays the same object while its trace is unchanged). */
+const trees = new WeakMap<ChunkSummaryRow[], SummaryTree>();
+
 /** Summary (raw units) of the samples in [fromUs, toUs], or null when the window holds none. */
 export async function windowSummary(store: ChunkStore, trace: StoredTrace, fromUs: number, toUs: number): Promise<SampleSummary | null> {
   if (trace.chunkCount === 0 || trace.originUs === null) return null;
-  const rows = await store.readSummaries(trace.traceId, trace.chunkCount, fromUs, toUs);
-  return summariseRows(store, trace, rows, fromUs, toUs);
+  if (!(store instanceof CachedChunkStore)) {
+    return summariseRows(store, trace, await store.readSummaries(trace.traceId, trace.chunkCount, fromUs, toUs), fromUs, toUs);
+  }
+  const rows = await store.allSummaries(trace.traceId, trace.chunkCount, trace.sampleCount);
+  const { from, to } = rowRange(rows, fromUs, toUs);
+  if (from >= to) return null;
+  let tree = trees.get(rows);
+  if (!tree || tree.gapThresholdS !== trace.gapThresholdS) {
+    tree = new SummaryTree(rows, trace.gapThresholdS);
+    trees.set(rows, tree);
+  }
+  // Whole chunks from the tree; the first and last chunk from their samples when partly outside.
+  const first = rows[from] as ChunkSummaryRow;
+  const last = rows[to - 1] as ChunkSummaryRow;
+  const partFirst = !chunkInside(first, fromUs, toUs);
+  const partLast = to - 1 > from && !chunkInside(last, fromUs, toUs);
+  const [head, tail] = await Promise.all([
+    partFirst ? partialSummary(store, trace, first, fromUs, toUs) : null,
+    partLast ? partialSummary(store, trace, last, fromUs, toUs) : null,
+  ]);
+  const middle = tree.query(from + (partFirst ? 1 : 0), to - (partLast ? 1 : 0));
+  const pieces = [head, middle, tail].filter((p): p is SampleSummary => p !== null);
+  return pieces.length === 0 ? null : mergeSummaryList(pieces);
 }
 
-/** The window's summary from its chunk rows (those the store returned for the window). */
+/** Summary of the samples of one chunk that lie in the window, from its samples; null when none do. */
+async function partialSummary(store: ChunkStore, trace: StoredTrace, row: ChunkSummaryRow, fromUs: number, toUs: number): Promise<SampleSummary | null> {
+  const [data] = await store.readData(trace.traceId, row.seq, row.seq);
+  if (!data) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no data`);
+  const chunk = decodeChunk(row, data);
+  const { from, to } = indexRangeInWindow(chunk, fromUs, toUs);
+  return from < to ? summarise(chunkAxis(chunk, trace.originUs as number), chunk.values, from, to, { gapThresholdS: trace.gapThresholdS }) : null;
+}
+
+/** The window's summary from its chunk rows (those the store returned for the window), chunk by chunk. */
 export async function summariseRows(
   store: ChunkStore,
   trace: StoredTrace,
@@ -34,20 +70,11 @@ export async function summariseRows(
   fromUs: number,
   toUs: number,
 ): Promise<SampleSummary | null> {
-  const origin = trace.originUs as number;
   const pieces: SampleSummary[] = [];
-  for (let k = 0; k < rows.length; k++) {
-    const row = rows[k] as ChunkSummaryRow;
-    if (chunkInside(row, fromUs, toUs)) {
-      pieces.push(summaryOfRow(row, trace.gapThresholdS));
-      continue;
-    }
+  for (const row of rows) {
     // Only the first and last chunk of a window can be partly outside it.
-    const [data] = await store.readData(trace.traceId, row.seq, row.seq);
-    if (!data) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no data`);
-    const chunk = decodeChunk(row, data);
-    const { from, to } = indexRangeInWindow(chunk, fromUs, toUs);
-    if (from < to) pieces.push(summarise(chunkAxis(chunk, origin), chunk.values, from, to, { gapThresholdS: trace.gapThresholdS }));
+    const piece = chunkInside(row, fromUs, toUs) ? summaryOfRow(row, trace.gapThresholdS) : await partialSummary(store, trace, row, fromUs, toUs);
+    if (piece) pieces.push(piece);
   }
   return pieces.length === 0 ? null : mergeSummaryList(pieces);
 }

@@ -80,7 +80,7 @@ describe('POST /api/v1/traces/{id}/samples', () => {
       expect(Float32Array.from(back.a)).toEqual(values);
       back.t.forEach((ms: number, i: number) => expect(ms).toBeCloseTo(T0 + i / 10, 6));
       const rows = await t.db.models.TraceChunk.findAll({ where: { traceId: id }, order: [['seq', 'ASC']] });
-      expect(rows.map((r) => [r.encoding, r.count])).toEqual([['uniform', 4096], ['uniform', 4096], ['uniform', 1808]]);
+      expect(rows.map((r) => [r.encoding, r.count])).toEqual([['uniform', 4096], ['uniform', 1904], ['uniform', 4000]]);
     });
 
     it('when float64 binary or start/rate/values JSON is sent, then the values are stored as float32', async () => {

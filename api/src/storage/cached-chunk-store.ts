@@ -1,0 +1,119 @@
+/**
+ * A chunk store that keeps the summary rows of recently read traces in memory, so that statistics
+ * and envelopes of a long trace do not read thousands of rows per request.
+ *
+ * Why it stays true: a committed chunk never changes except the trace's last one (topped up by the
+ * next batch), and every commit changes the trace's sampleCount. So rows cached for (chunkCount,
+ * sampleCount) are exactly the stored rows while the trace has those counts; when they differ, the
+ * rows from the old last chunk on are read again (whatever process wrote them). Reads that give no
+ * sampleCount go straight to the store.
+ */
+import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, StoredChunk } from './chunk-store.js';
+import type { ChunkSummaryRow } from './summary-rows.js';
+
+/** Most summary rows kept over all traces (about 0.5 KB each: 40 MB, some 800 million samples). */
+export const MAX_CACHED_ROWS = 80_000;
+
+interface Entry {
+  chunkCount: number;
+  sampleCount: number;
+  rows: ChunkSummaryRow[];
+}
+
+/** Index range [from, to) of the rows (time-ordered, non-overlapping) that hold a sample in [fromUs, toUs]. */
+export function rowRange(rows: readonly ChunkSummaryRow[], fromUs: number, toUs: number): { from: number; to: number } {
+  let lo = 0;
+  let hi = rows.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if ((rows[mid] as ChunkSummaryRow).lastUs < fromUs) lo = mid + 1;
+    else hi = mid;
+  }
+  let a = lo;
+  let b = rows.length;
+  while (a < b) {
+    const mid = (a + b) >>> 1;
+    if ((rows[mid] as ChunkSummaryRow).firstUs <= toUs) a = mid + 1;
+    else b = mid;
+  }
+  return { from: lo, to: Math.max(lo, a) };
+}
+
+function windowOf(rows: ChunkSummaryRow[], fromUs: number, toUs: number): ChunkSummaryRow[] {
+  const { from, to } = rowRange(rows, fromUs, toUs);
+  return rows.slice(from, to);
+}
+
+export class CachedChunkStore implements ChunkStore {
+  private readonly entries = new Map<string, Entry>();
+  private cachedRows = 0;
+
+  constructor(private readonly store: ChunkStore) {}
+
+  insertPending(traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
+    return this.store.insertPending(traceId, organisationId, chunks);
+  }
+
+  commit(batch: BatchCommit): Promise<boolean> {
+    return this.store.commit(batch);
+  }
+
+  discardPending(traceId: string, fromSeq: number): Promise<void> {
+    return this.store.discardPending(traceId, fromSeq);
+  }
+
+  readData(traceId: string, fromSeq: number, toSeq: number): Promise<ChunkData[]> {
+    return this.store.readData(traceId, fromSeq, toSeq);
+  }
+
+  readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
+    return this.store.readEnvelopes(traceId, fromSeq, toSeq, withTimes);
+  }
+
+  /**
+   * Every summary row of the trace, as one array that stays the same object while the trace keeps
+   * these counts (so callers may key their own derived structures on it).
+   */
+  allSummaries(traceId: string, chunkCount: number, sampleCount: number): Promise<ChunkSummaryRow[]> {
+    return this.allRows(traceId, chunkCount, sampleCount);
+  }
+
+  /** With `sampleCount` (the trace's, read with chunkCount), the rows come from the cache when they can. */
+  async readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number, sampleCount?: number): Promise<ChunkSummaryRow[]> {
+    if (sampleCount === undefined) return this.store.readSummaries(traceId, chunkCount, fromUs, toUs);
+    return windowOf(await this.allRows(traceId, chunkCount, sampleCount), fromUs, toUs);
+  }
+
+  private async allRows(traceId: string, chunkCount: number, sampleCount: number): Promise<ChunkSummaryRow[]> {
+    const entry = this.entries.get(traceId);
+    if (entry && entry.chunkCount === chunkCount && entry.sampleCount === sampleCount) {
+      // Most recently used last.
+      this.entries.delete(traceId);
+      this.entries.set(traceId, entry);
+      return entry.rows;
+    }
+    let rows: ChunkSummaryRow[];
+    if (entry && entry.chunkCount > 0 && entry.chunkCount <= chunkCount && entry.rows.length === entry.chunkCount) {
+      // Rows before the old last chunk cannot have changed; read that one and everything after it.
+      const keep = entry.rows.slice(0, entry.chunkCount - 1);
+      const from = (entry.rows[entry.chunkCount - 1] as ChunkSummaryRow).firstUs;
+      rows = keep.concat(await this.store.readSummaries(traceId, chunkCount, from, Number.POSITIVE_INFINITY));
+    } else {
+      rows = await this.store.readSummaries(traceId, chunkCount, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY);
+    }
+    this.forget(traceId);
+    if (rows.length === chunkCount && rows.length <= MAX_CACHED_ROWS / 4) {
+      while (this.cachedRows + rows.length > MAX_CACHED_ROWS && this.entries.size > 0) this.forget(this.entries.keys().next().value as string);
+      this.entries.set(traceId, { chunkCount, sampleCount, rows });
+      this.cachedRows += rows.length;
+    }
+    return rows;
+  }
+
+  private forget(traceId: string): void {
+    const entry = this.entries.get(traceId);
+    if (!entry) return;
+    this.cachedRows -= entry.rows.length;
+    this.entries.delete(traceId);
+  }
+}

@@ -1,0 +1,338 @@
+/**
+ * Trace ingest and storage (`npm run bench -- ingest`): the real server in a child process on a
+ * temporary SQLite file, over HTTP on 127.0.0.1 only (this process is the client, on the same 2 cores).
+ *
+ * 1. Ingest rates, WORKERS connections each appending to its own trace: float32 binary batches of
+ *    100,000 samples, JSON batches of 10,000 (`{"t","a"}` and `{"values"}`), CSV and NDJSON batches of
+ *    10,000 rows. Bodies are built before the clock starts.
+ * 2. Query latency on a 10,000,000-sample trace and on a 100-sample trace: `series?points=1000` of the
+ *    whole range and of a 1 % window at a random place, and `stats` of a random window (medians and
+ *    p95 of QUERY_RUNS sequential requests after warm-up), with the 10M / 100 ratio.
+ * 3. Peak RSS of a fresh server process while one request streams 100,000,000 float32 samples (400 MB),
+ *    sampled from /proc every 20 ms.
+ * Targets (issue 4): binary ≥ 10 M samples/s, JSON ≥ 5 M/s, CSV and NDJSON ≥ 1 M/s; series and stats
+ * under 20 ms on the 10M trace and within 2× of the 100-sample trace; peak RSS under 300 MB.
+ */
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import http from 'node:http';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import path from 'node:path';
+import { Readable } from 'node:stream';
+import { testConfig } from '../api/src/config/config.js';
+import { openDatabase } from '../api/src/db/open.js';
+import { createServices } from '../api/src/services/index.js';
+import { ServerProcess, freePort, sleep } from '../api/test/stress/support/server-process.js';
+
+const WORKERS = Number(process.env.INGEST_WORKERS ?? 4);
+const QUERY_RUNS = Number(process.env.INGEST_QUERY_RUNS ?? 40);
+const BIG_SAMPLES = 10_000_000;
+const STREAM_SAMPLES = Number(process.env.INGEST_STREAM_SAMPLES ?? 100_000_000);
+const T0 = Date.parse('2026-03-02T08:00:00Z');
+
+const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+let base = { port: 0, key: '' };
+
+interface Reply {
+  status: number;
+  text: string;
+}
+
+function send(method: string, url: string, body?: Buffer | string | Readable, contentType = 'application/json'): Promise<Reply> {
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port: base.port,
+        method,
+        path: `/api/v1${url}`,
+        agent,
+        headers: { Authorization: `Bearer ${base.key}`, ...(body !== undefined ? { 'Content-Type': contentType } : {}) },
+      },
+      (res) => {
+        const parts: Buffer[] = [];
+        res.on('data', (c: Buffer) => parts.push(c));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(parts).toString() }));
+        res.on('error', reject);
+      },
+    );
+    req.on('error', reject);
+    if (body instanceof Readable) body.pipe(req);
+    else req.end(body);
+  });
+}
+
+async function ok(method: string, url: string, body?: Buffer | string | Readable, contentType?: string): Promise<Record<string, unknown>> {
+  const res = await send(method, url, body, contentType);
+  if (res.status >= 300) throw new Error(`${method} ${url}: ${res.status} ${res.text.slice(0, 500)}`);
+  return res.text ? (JSON.parse(res.text) as Record<string, unknown>) : {};
+}
+
+async function newTrace(name: string, extra: Record<string, unknown> = {}): Promise<string> {
+  return (await ok('POST', '/traces', JSON.stringify({ name, kind: 'rms', startTime: T0, ...extra }))).id as string;
+}
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1] as number;
+const p95 = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(xs.length * 0.95))] as number;
+const fmtRate = (perS: number) => `${(perS / 1e6).toFixed(2)} M samples/s`;
+
+// ---------------------------------------------------------------- bodies
+
+function binaryBatch(n: number, phase: number): Buffer {
+  const v = new Float32Array(n);
+  for (let i = 0; i < n; i++) v[i] = 10 * Math.sin((2 * Math.PI * (phase + i)) / 600) + ((i * 7919) % 13) / 13;
+  return Buffer.from(v.buffer);
+}
+
+/** Epoch ms of sample `index` of a 1 kHz explicit series (integers and fractions of ms alternate). */
+const timeOf = (index: number) => T0 + index * 1.25;
+const valueOf = (index: number) => Math.round((8 + 4 * Math.sin(index / 900)) * 100) / 100;
+
+function jsonTaBatch(batch: number, n: number): string {
+  const t: number[] = [];
+  const a: number[] = [];
+  for (let i = 0; i < n; i++) {
+    t.push(timeOf(batch * n + i));
+    a.push(valueOf(batch * n + i));
+  }
+  return JSON.stringify({ t, a });
+}
+
+function csvBatch(batch: number, n: number): string {
+  const lines = ['time_ms,current_A'];
+  for (let i = 0; i < n; i++) lines.push(`${timeOf(batch * n + i)},${valueOf(batch * n + i)}`);
+  return lines.join('\n') + '\n';
+}
+
+function ndjsonBatch(batch: number, n: number): string {
+  const lines: string[] = [];
+  for (let i = 0; i < n; i++) lines.push(`{"t":${timeOf(batch * n + i)},"a":${valueOf(batch * n + i)}}`);
+  return lines.join('\n') + '\n';
+}
+
+// ---------------------------------------------------------------- 1. ingest rates
+
+interface Format {
+  name: string;
+  batchSamples: number;
+  batchesPerWorker: number;
+  contentType: string;
+  traceExtra: Record<string, unknown>;
+  /** Body of batch b (0 = warm-up) for worker w; query string. */
+  body(worker: number, batch: number): Buffer | string;
+  query(batch: number): string;
+  target: number;
+}
+
+const FORMATS: Format[] = [
+  {
+    name: 'binary float32, 100,000-sample batches',
+    batchSamples: 100_000,
+    batchesPerWorker: 25,
+    contentType: 'application/octet-stream',
+    traceExtra: { sampleRateHz: 10_000 },
+    body: (() => {
+      const shared = binaryBatch(100_000, 0);
+      return () => shared;
+    })(),
+    query: () => '',
+    target: 10e6,
+  },
+  {
+    name: 'JSON {"t","a"}, 10,000-sample batches',
+    batchSamples: 10_000,
+    batchesPerWorker: 60,
+    contentType: 'application/json',
+    traceExtra: {},
+    body: (_w, b) => jsonTaBatch(b, 10_000),
+    query: () => '',
+    target: 5e6,
+  },
+  {
+    name: 'JSON {"values"} at a rate, 10,000-sample batches',
+    batchSamples: 10_000,
+    batchesPerWorker: 60,
+    contentType: 'application/json',
+    traceExtra: { sampleRateHz: 1000 },
+    body: (() => {
+      const shared = JSON.stringify({ values: Array.from({ length: 10_000 }, (_, i) => valueOf(i)) });
+      return () => shared;
+    })(),
+    query: () => '',
+    target: 5e6,
+  },
+  {
+    name: 'CSV, 10,000-row batches',
+    batchSamples: 10_000,
+    batchesPerWorker: 25,
+    contentType: 'text/csv',
+    traceExtra: {},
+    body: (_w, b) => csvBatch(b, 10_000),
+    query: () => '',
+    target: 1e6,
+  },
+  {
+    name: 'NDJSON, 10,000-line batches',
+    batchSamples: 10_000,
+    batchesPerWorker: 25,
+    contentType: 'application/x-ndjson',
+    traceExtra: {},
+    body: (_w, b) => ndjsonBatch(b, 10_000),
+    query: () => '',
+    target: 1e6,
+  },
+];
+
+async function ingestRate(format: Format): Promise<number> {
+  const traces: string[] = [];
+  for (let w = 0; w < WORKERS; w++) traces.push(await newTrace(`${format.name} #${w}`, format.traceExtra));
+  // Bodies first (not timed); batch 0 is the warm-up.
+  const bodies = traces.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => format.body(w, b)));
+  await Promise.all(traces.map((id, w) => ok('POST', `/traces/${id}/samples${format.query(0)}`, bodies[w]![0], format.contentType)));
+  const started = performance.now();
+  await Promise.all(
+    traces.map(async (id, w) => {
+      for (let b = 1; b <= format.batchesPerWorker; b++) await ok('POST', `/traces/${id}/samples${format.query(b)}`, bodies[w]![b], format.contentType);
+    }),
+  );
+  const seconds = (performance.now() - started) / 1000;
+  return (WORKERS * format.batchesPerWorker * format.batchSamples) / seconds;
+}
+
+// ---------------------------------------------------------------- 2. query latency
+
+async function latency(url: () => string): Promise<{ median: number; p95: number }> {
+  for (let i = 0; i < 5; i++) await ok('GET', url());
+  const ms: number[] = [];
+  for (let i = 0; i < QUERY_RUNS; i++) {
+    const u = url();
+    const t0 = performance.now();
+    await ok('GET', u);
+    ms.push(performance.now() - t0);
+  }
+  return { median: median(ms), p95: p95(ms) };
+}
+
+async function queryFigures(id: string, firstMs: number, lastMs: number) {
+  const span = lastMs - firstMs;
+  const random = (fraction: number) => {
+    const from = firstMs + Math.random() * span * (1 - fraction);
+    return `from=${from}&to=${from + span * fraction}`;
+  };
+  return {
+    seriesWhole: await latency(() => `/traces/${id}/series?points=1000`),
+    seriesWindow: await latency(() => `/traces/${id}/series?points=1000&${random(0.01)}`),
+    statsWindow: await latency(() => `/traces/${id}/stats?${random(0.05 + Math.random() * 0.9)}`),
+  };
+}
+
+// ---------------------------------------------------------------- 3. peak RSS while streaming
+
+function rssMb(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+  const m = /VmRSS:\s+(\d+) kB/.exec(status);
+  return m ? Number(m[1]) / 1024 : Number.NaN;
+}
+
+async function streamUpload(pid: number): Promise<{ baselineMb: number; peakMb: number; seconds: number }> {
+  const id = await newTrace('100M-sample stream', { kind: 'waveform', sampleRateHz: 30_000 });
+  const piece = binaryBatch(1 << 18, 0); // 1 MB, sent again and again
+  const pieces = Math.ceil((STREAM_SAMPLES * 4) / piece.length);
+  const body = Readable.from(
+    (function* () {
+      for (let i = 0; i < pieces; i++) yield i === pieces - 1 ? piece.subarray(0, STREAM_SAMPLES * 4 - i * piece.length) : piece;
+    })(),
+  );
+  const baselineMb = rssMb(pid);
+  let peakMb = baselineMb;
+  const poll = setInterval(() => {
+    peakMb = Math.max(peakMb, rssMb(pid));
+  }, 20);
+  const started = performance.now();
+  try {
+    const res = await ok('POST', `/traces/${id}/samples`, body, 'application/octet-stream');
+    if (res.accepted !== STREAM_SAMPLES) throw new Error(`stored ${String(res.accepted)} of ${STREAM_SAMPLES}`);
+  } finally {
+    clearInterval(poll);
+  }
+  peakMb = Math.max(peakMb, rssMb(pid));
+  return { baselineMb, peakMb, seconds: (performance.now() - started) / 1000 };
+}
+
+// ---------------------------------------------------------------- run
+
+async function prepareKey(databaseFile: string): Promise<string> {
+  const db = await openDatabase({ databaseFile });
+  try {
+    const organisationId = crypto.randomUUID();
+    await db.models.Organisation.create({ id: organisationId, name: 'Ingest bench' });
+    const services = createServices(db, testConfig({ databaseFile }));
+    const system = { organisationId, actor: { kind: 'system' as const, id: 'system' as const } };
+    return (await services.apiKeys.create(system, { name: 'ingest bench', scopes: ['ingest', 'read'] })).secret;
+  } finally {
+    await db.close();
+  }
+}
+
+const SERVER_ENV = { RATE_LIMIT_PER_MINUTE: '100000000', RATE_LIMIT_IP_PER_MINUTE: '100000000', SAMPLE_BODY_LIMIT: '2gb' };
+
+async function main() {
+  const dir = mkdtempSync(path.join(tmpdir(), 'headroom-ingest-bench-'));
+  const databaseFile = path.join(dir, 'bench.sqlite');
+  console.log(`Trace ingest and storage — ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), load ${loadavg()[0]!.toFixed(2)}, SQLite file in ${dir}`);
+  console.log(`Client and server share the machine; ${WORKERS} connections for ingest.\n`);
+  base = { port: await freePort(), key: await prepareKey(databaseFile) };
+  let server = new ServerProcess(databaseFile, base.port, SERVER_ENV);
+  try {
+    await server.start();
+
+    console.log('1. Ingest over HTTP (samples stored per second, batches committed)');
+    const rates: Record<string, number> = {};
+    for (const format of FORMATS) {
+      const rate = await ingestRate(format);
+      rates[format.name] = rate;
+      console.log(`   ${format.name.padEnd(48)} ${fmtRate(rate).padStart(18)}   ${(rate / format.target).toFixed(2)}× the target of ${format.target / 1e6} M/s`);
+    }
+    const binary = rates[FORMATS[0]!.name]!;
+    console.log(`   ratios to binary: ${FORMATS.slice(1).map((f) => `${f.name.split(',')[0]} ${(rates[f.name]! / binary).toFixed(2)}`).join(', ')}`);
+
+    console.log(`\n2. Queries on a ${BIG_SAMPLES.toLocaleString('en')}-sample trace and on a 100-sample trace (ms, median / p95 of ${QUERY_RUNS})`);
+    const big = await newTrace('10M-sample trace', { sampleRateHz: 10_000 });
+    const batch = binaryBatch(1_000_000, 0);
+    const loadStart = performance.now();
+    for (let b = 0; b < BIG_SAMPLES / 1_000_000; b++) await ok('POST', `/traces/${big}/samples`, batch, 'application/octet-stream');
+    console.log(`   (filling it: 1,000,000-sample binary batches on one connection, ${fmtRate(BIG_SAMPLES / ((performance.now() - loadStart) / 1000))})`);
+    const small = await newTrace('100-sample trace', { sampleRateHz: 1 });
+    await ok('POST', `/traces/${small}/samples`, JSON.stringify({ values: Array.from({ length: 100 }, (_, i) => valueOf(i)) }));
+    const bigFigures = await queryFigures(big, T0, T0 + (BIG_SAMPLES - 1) / 10);
+    const smallFigures = await queryFigures(small, T0, T0 + 99_000);
+    const rows: Array<[string, keyof typeof bigFigures]> = [
+      ['series?points=1000, whole range', 'seriesWhole'],
+      ['series?points=1000, 1 % window', 'seriesWindow'],
+      ['stats, random window', 'statsWindow'],
+    ];
+    for (const [label, key] of rows) {
+      const b = bigFigures[key];
+      const s = smallFigures[key];
+      console.log(
+        `   ${label.padEnd(34)} 10M ${b.median.toFixed(2).padStart(6)} / ${b.p95.toFixed(2).padStart(6)}   100 ${s.median.toFixed(2).padStart(6)} / ${s.p95.toFixed(2).padStart(6)}   ratio ${(b.median / s.median).toFixed(2)} (target ≤ 2), ${b.median < 20 ? 'under' : 'OVER'} 20 ms`,
+      );
+    }
+
+    await server.kill('SIGTERM');
+    console.log(`\n3. Peak RSS of a fresh server while one request streams ${STREAM_SAMPLES.toLocaleString('en')} float32 samples (${(STREAM_SAMPLES * 4) / 1e6} MB)`);
+    server = new ServerProcess(databaseFile, base.port, SERVER_ENV);
+    await server.start();
+    await sleep(500);
+    const stream = await streamUpload(server.child!.pid!);
+    console.log(
+      `   RSS ${stream.baselineMb.toFixed(0)} MB before, peak ${stream.peakMb.toFixed(0)} MB (${(stream.peakMb / 300).toFixed(2)}× the 300 MB limit); ` +
+        `stored in ${stream.seconds.toFixed(1)} s, ${fmtRate(STREAM_SAMPLES / stream.seconds)}`,
+    );
+  } finally {
+    await server.kill('SIGTERM');
+    agent.destroy();
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+await main();
