@@ -43,7 +43,7 @@ export default function CircuitPage() {
         }
         title={c.label}
         titleId="circuit-title"
-        subtitle={`${c.deviceRatingA} A ${deviceKindLabel(c.deviceKind)} · ${c.nominalVoltageV} V ${c.mainsHz} Hz · ${[c.conductorSize, c.conductorMaterial?.toUpperCase()].filter(Boolean).join(' ') || 'conductor not recorded'}${c.feedsOtherOutlets ? ' · also feeds other outlets' : ''}`}
+        subtitle={`${c.deviceRatingA} A · ${deviceKindLabel(c.deviceKind)} · ${c.nominalVoltageV} V ${c.mainsHz} Hz · ${[c.conductorSize, c.conductorMaterial?.toUpperCase()].filter(Boolean).join(' ') || 'conductor not recorded'}${c.feedsOtherOutlets ? ' · also feeds other outlets' : ''}`}
         actions={
           <>
             <ReportButtons target={{ circuitId }} />

@@ -106,7 +106,7 @@ export function TimeCurrentChart({
         label: {
           display: true,
           content: `Rating ${ratingA} A`,
-          position: 'start',
+          position: 'end',
           backgroundColor: chartColours.rating,
           color: '#fff',
           font: { size: 10 },

@@ -62,19 +62,17 @@ export function VerdictPanel({ check, title = 'Headroom check' }: { check: Headr
           </p>
           <p className="mt-1 max-w-3xl text-sm text-ink-800">{check.summary}</p>
         </div>
-        <dl className="grid w-full max-w-sm shrink-0 grid-cols-[1fr_auto] gap-x-6 gap-y-1 rounded-lg bg-ink-50 px-4 py-3 text-sm">
-          <dt className="text-ink-500">Steady headroom</dt>
+        <dl className="grid w-full max-w-xs shrink-0 grid-cols-[1fr_auto] gap-x-6 gap-y-1 rounded-lg bg-ink-50 px-4 py-3 text-sm">
+          <dt className="whitespace-nowrap text-ink-500">Steady headroom</dt>
           <dd className={`text-right font-semibold ${check.headroomA < 0 ? 'text-verdict-over' : 'text-ink-900'}`}>
             {formatValue(check.headroomA, 'A', 1)}
           </dd>
-          <dt className="text-ink-500">Start-up headroom</dt>
+          <dt className="whitespace-nowrap text-ink-500">Start-up headroom</dt>
           <dd className="text-right font-semibold text-ink-900">
             {check.startHeadroomA === null ? 'n/a (fuse)' : formatValue(check.startHeadroomA, 'A', 1)}
           </dd>
-          <dt className="text-ink-500">Running total</dt>
+          <dt className="whitespace-nowrap text-ink-500">Running total</dt>
           <dd className="text-right text-ink-900">{formatValue(check.steady.runningTotalA, 'A', 1)}</dd>
-          <dt className="text-ink-500">Device</dt>
-          <dd className="text-right text-ink-900">{check.device.label}</dd>
         </dl>
       </div>
       <div>

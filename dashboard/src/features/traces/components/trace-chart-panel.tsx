@@ -105,7 +105,7 @@ export function TraceChartPanel({
       />
       <p className="text-xs text-ink-500">
         {series.data.sampleCount.toLocaleString()} samples in view, drawn as {series.data.t.length.toLocaleString()}{' '}
-        buckets ({series.data.level === 'samples' ? 'every sample' : 'min, max and mean of each bucket'}).
+        buckets, each with its minimum, maximum and mean, so no peak is lost between points.
       </p>
     </div>
   );
