@@ -181,12 +181,12 @@ export class BatchWriter {
   private resolveRun(start: UniformStart, rateHz: number): Run {
     const continuing = this.run !== null && this.run.rateHz === rateHz;
     if (start === 'continue') {
-      if (!continuing) {
-        throw new Problem('validation', 'There is no uniform series at this sample rate to continue: give the start time of the samples', {
-          errors: [{ detail: 'required when the trace has no uniform series at this rate to continue', parameter: 'start' }],
-        });
-      }
-      return { ...(this.run as Run) };
+      if (continuing) return { ...(this.run as Run) };
+      // After samples at other times (or another rate): one sample period after the last one.
+      if (this.lastUs !== null) return { startUs: this.lastUs + 1e6 / rateHz, rateHz, nextIndex: 0 };
+      throw new Problem('validation', 'The trace has no samples yet and no start time: give the start time of the samples', {
+        errors: [{ detail: 'required when the trace has no samples and no startTime', parameter: 'start' }],
+      });
     }
     if (continuing) {
       const run = this.run as Run;

@@ -105,6 +105,16 @@ describe('POST /api/v1/traces/{id}/samples', () => {
       expect(back.a).toEqual([Number(Math.fround(1.2505).toPrecision(7)), Number(Math.fround(0.98025).toPrecision(7))]);
     });
 
+    it('when readings at a rate follow samples at explicit times, then they start one period after the last one', async () => {
+      const id = await newTrace();
+      await post(id, 'application/json', JSON.stringify({ t: [T0, T0 + 100], a: [1, 2] }));
+      const res = await post(id, 'application/json', JSON.stringify({ rate: 20, values: [3, 4] }));
+      expect(res.body).toMatchObject({ firstTime: T0 + 150, lastTime: T0 + 200, sampleCount: 4 });
+      const none = await post(await newTrace(), 'application/json', JSON.stringify({ rate: 20, values: [3, 4] }));
+      expect(none.status).toBe(400);
+      expect(none.body.errors[0].pointer).toBe('/start');
+    });
+
     it('when a JSON batch gives seconds from the trace start, then they are placed after its startTime', async () => {
       const id = await newTrace({ startTime: T0 });
       const res = await post(id, 'application/json', JSON.stringify({ t: [0, 0.5, 1.25], a: [1, 2, 3] }));
