@@ -112,4 +112,29 @@ describe('sign-in and roles', () => {
     await page.waitForURL(/\/sign-in\?next=/);
     await context.close();
   });
+
+  it('when a user forgets the password, then the e-mailed link sets a new one that signs in', async () => {
+    const { context, page } = await newPage(e2e.browser, e2e.server.baseUrl);
+    const viewer = demoUser('viewer');
+    await page.goto('/sign-in');
+    await page.getByRole('button', { name: 'Forgot your password?' }).click();
+    await page.getByLabel('E-mail').fill(viewer.email);
+    await page.getByRole('button', { name: 'Send reset link' }).click();
+    await page.getByText('a link to choose a new password is on its way').waitFor();
+    const mail = await e2e.server.mailbox.waitFor((m) => m.to.includes(viewer.email), 10_000);
+    const token = /reset-password\?token=([A-Za-z0-9_\-.~%]+)/.exec(mail.text)?.[1];
+    expect(token).toBeTruthy();
+
+    await page.goto(`/reset-password?token=${token}`);
+    await page.getByLabel('New password', { exact: true }).fill('a brand new passphrase');
+    await page.getByLabel('Repeat the password').fill('a brand new passphrase');
+    await page.getByRole('button', { name: 'Set the new password' }).click();
+    await page.getByText('Your password has been changed').waitFor();
+    await page.getByRole('link', { name: 'Sign in with the new password' }).click();
+    await page.getByLabel('E-mail').fill(viewer.email);
+    await page.getByLabel('Password').fill('a brand new passphrase');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByTestId('signed-in-user').filter({ hasText: viewer.name }).waitFor();
+    await context.close();
+  });
 });
