@@ -50,4 +50,29 @@ describe('sites and circuits', () => {
     expect(await page.getByRole('row').filter({ hasText: 'Kettle' }).count()).toBe(0);
     await context.close();
   });
+
+  it('when an engineer downloads the reports and e-mails the PDF, then the files and the message arrive', async () => {
+    const { context, page } = await newPage(e2e.browser, e2e.server.baseUrl);
+    await signIn(page, 'engineer', `/circuits/${counter.id}`);
+    await page.getByTestId('verdict').first().waitFor();
+    for (const [button, extension] of [
+      ['PDF report', '.pdf'],
+      ['CSV figures', '.csv'],
+    ] as const) {
+      const download = page.waitForEvent('download');
+      await page.getByRole('button', { name: button }).click();
+      const file = await download;
+      expect(file.suggestedFilename().endsWith(extension)).toBe(true);
+      const stream = await file.createReadStream();
+      let bytes = 0;
+      for await (const chunk of stream) bytes += (chunk as Buffer).length;
+      expect(bytes).toBeGreaterThan(200);
+    }
+    await page.getByLabel('Send the PDF report to').fill('hall-committee@example.test');
+    await page.getByRole('button', { name: 'Send report' }).click();
+    await page.getByText('Report sent to hall-committee@example.test').waitFor();
+    const mail = await e2e.server.mailbox.waitFor((m) => m.to.includes('hall-committee@example.test'), 10_000);
+    expect(mail.attachments.some((a) => a.contentType === 'application/pdf')).toBe(true);
+    await context.close();
+  });
 });
