@@ -29,7 +29,13 @@ const BIG_SAMPLES = 10_000_000;
 const STREAM_SAMPLES = Number(process.env.INGEST_STREAM_SAMPLES ?? 100_000_000);
 const T0 = Date.parse('2026-03-02T08:00:00Z');
 
-const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+let agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+
+/** Fresh connections: the server closes idle ones after 5 s, and reusing one as it closes fails. */
+function freshConnections(): void {
+  agent.destroy();
+  agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+}
 let base = { port: 0, key: '' };
 
 interface Reply {
@@ -187,6 +193,7 @@ async function ingestRate(format: Format): Promise<number> {
   for (let w = 0; w < WORKERS; w++) traces.push(await newTrace(`${format.name} #${w}`, format.traceExtra));
   // Bodies first (not timed); batch 0 is the warm-up.
   const bodies = traces.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => format.body(w, b)));
+  freshConnections();
   await Promise.all(traces.map((id, w) => ok('POST', `/traces/${id}/samples${format.query(0)}`, bodies[w]![0], format.contentType)));
   const started = performance.now();
   await Promise.all(
@@ -201,6 +208,7 @@ async function ingestRate(format: Format): Promise<number> {
 // ---------------------------------------------------------------- 2. query latency
 
 async function latency(url: () => string): Promise<{ median: number; p95: number }> {
+  freshConnections();
   for (let i = 0; i < 5; i++) await ok('GET', url());
   const ms: number[] = [];
   for (let i = 0; i < QUERY_RUNS; i++) {
@@ -242,6 +250,7 @@ async function streamUpload(pid: number): Promise<{ baselineMb: number; peakMb: 
       for (let i = 0; i < pieces; i++) yield i === pieces - 1 ? piece.subarray(0, STREAM_SAMPLES * 4 - i * piece.length) : piece;
     })(),
   );
+  freshConnections();
   const baselineMb = rssMb(pid);
   let peakMb = baselineMb;
   const poll = setInterval(() => {
@@ -328,6 +337,9 @@ async function main() {
       `   RSS ${stream.baselineMb.toFixed(0)} MB before, peak ${stream.peakMb.toFixed(0)} MB (${(stream.peakMb / 300).toFixed(2)}× the 300 MB limit); ` +
         `stored in ${stream.seconds.toFixed(1)} s, ${fmtRate(STREAM_SAMPLES / stream.seconds)}`,
     );
+  } catch (err) {
+    console.error(`\nThe bench failed; the server said:\n${server.output.slice(-4000)}`);
+    throw err;
   } finally {
     await server.kill('SIGTERM');
     agent.destroy();

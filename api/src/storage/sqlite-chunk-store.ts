@@ -10,6 +10,11 @@
  * Both get the same pragmas as every connection (db/open.ts). Nothing inside a write transaction waits
  * for a Sequelize query, so the two can never wait for each other's lock.
  *
+ * Checkpoints: SQLite copies the WAL back into the database file (and syncs it) inside whichever
+ * COMMIT passes 1,000 pages — on a busy disk that COMMIT takes 100 ms or more. The writer connection
+ * turns that off and runs a PASSIVE checkpoint on a third connection after every CHECKPOINT_BYTES
+ * written, beside the writes rather than inside one (a PASSIVE checkpoint never blocks the writer).
+ *
  * An in-memory database has a single connection; there, writes run inside `sequelize.transaction()` so
  * they take part in Sequelize's own bookkeeping (used by tests).
  */
@@ -28,6 +33,9 @@ interface Stage {
 
 const SUMMARY_INSERT_COLUMNS = ['traceId', 'seq', 'organisationId', ...SUMMARY_COLUMNS];
 const DATA_INSERT_COLUMNS = ['traceId', 'seq', 'envelope', 'times', 'samples'];
+/** Bytes written to the WAL (about) between background checkpoints. */
+const CHECKPOINT_BYTES = 16 * 1024 * 1024;
+
 /** Rows per multi-row INSERT (27 parameters per summary row stays far below SQLite's 32,766). */
 const ROWS_PER_INSERT = 64;
 
@@ -95,6 +103,9 @@ export class SqliteChunkStore implements ChunkStore {
   /** Tail of the queue of write transactions on the writer connection. */
   private writeQueue: Promise<unknown> = Promise.resolve();
   private readonly sqlCache = new Map<string, string>();
+  private writerReady = false;
+  private bytesSinceCheckpoint = 0;
+  private checkpointing = false;
 
   constructor(private readonly sequelize: Sequelize) {
     this.inMemory = (sequelize as unknown as { options: { storage?: string } }).options.storage === ':memory:';
@@ -138,6 +149,10 @@ export class SqliteChunkStore implements ChunkStore {
         }
       }
       const conn = await this.manager.getConnection({ uuid: 'headroom-chunk-writer' });
+      if (!this.writerReady) {
+        await run(conn, 'PRAGMA wal_autocheckpoint = 0');
+        this.writerReady = true;
+      }
       await run(conn, 'BEGIN IMMEDIATE');
       let committed = false;
       try {
@@ -148,10 +163,28 @@ export class SqliteChunkStore implements ChunkStore {
       } finally {
         if (!committed) await run(conn, 'ROLLBACK').catch(() => undefined);
       }
+      if (committed) this.wrote(stages);
       return committed;
     });
     this.writeQueue = next.catch(() => undefined);
     return next;
+  }
+
+  /** Counts what a transaction wrote and starts a background checkpoint once enough has gathered. */
+  private wrote(stages: Stage[]): void {
+    for (const stage of stages) {
+      for (const [, params] of stage.statements) for (const p of params) this.bytesSinceCheckpoint += Buffer.isBuffer(p) ? p.length : 16;
+    }
+    if (this.bytesSinceCheckpoint < CHECKPOINT_BYTES || this.checkpointing) return;
+    this.checkpointing = true;
+    this.bytesSinceCheckpoint = 0;
+    void this.manager
+      .getConnection({ uuid: 'headroom-chunk-checkpointer' })
+      .then((conn) => run(conn, 'PRAGMA wal_checkpoint(PASSIVE)'))
+      .catch(() => undefined) // a checkpoint that could not run is retried after the next 16 MB
+      .finally(() => {
+        this.checkpointing = false;
+      });
   }
 
   private cachedInsertSql(table: string, columns: readonly string[], rows: number): string {
