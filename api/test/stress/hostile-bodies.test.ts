@@ -1,11 +1,13 @@
 /**
  * Regressions found by the fuzzer, pinned down: U+0000 in any part of a request (PostgreSQL cannot
- * store it; on SQLite it cut an inlined literal short and answered 500), and JSON nested a hundred
- * thousand levels deep (a path copied per level made the NUL check quadratic: a hang).
+ * store it; on SQLite it cut an inlined literal short and answered 500), JSON nested a hundred
+ * thousand levels deep (a path copied per level made the NUL check quadratic: a hang), and an e-mail
+ * address the mail server refuses (a local part over 64 characters answered 503 "try again later").
  */
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, type TestApp } from '../../src/testing/make-test-app.js';
+import { fixtureBuilder } from './support/fixtures.js';
 import { stateDigest } from './support/fuzz-harness.js';
 
 describe('hostile bodies', () => {
@@ -39,5 +41,16 @@ describe('hostile bodies', () => {
     const res = await request(t.app).post('/api/v1/sites').set(headers).set('Content-Type', 'application/json').send(body).timeout({ response: 10_000 });
     expect(res.status).toBe(400);
     expect(res.body.errors[0].pointer).toBe('/notes');
+  });
+
+  it('when a report is e-mailed to an address with a local part over 64 characters, then 400 names the field', async () => {
+    const fixtures = fixtureBuilder(t.app, t.db, () => t.auth('engineer'));
+    await fixtures.ensure();
+    const to = `${'r'.repeat(65)}@example.test`;
+    const res = await request(t.app).post(`/api/v1/circuits/${fixtures.ids.circuitId}/report/email`).set(headers).send({ to });
+    expect(res.status, res.text).toBe(400);
+    expect(res.body.errors[0].pointer).toBe('/to');
+    const invite = await request(t.app).post('/api/v1/users').set(await t.auth('admin')).send({ email: to, name: 'Long address', role: 'viewer' });
+    expect(invite.status, invite.text).toBe(400);
   });
 });

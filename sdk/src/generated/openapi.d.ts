@@ -1810,12 +1810,18 @@ export interface components {
             name: string;
         };
         SignIn: {
-            /** @example sam.carter@example.com */
+            /**
+             * Format: email
+             * @example sam.carter@example.com
+             */
             email: string;
             password: string;
         };
         PasswordResetRequest: {
-            /** @example sam.carter@example.com */
+            /**
+             * Format: email
+             * @example sam.carter@example.com
+             */
             email: string;
         };
         PasswordResetComplete: {
@@ -1880,7 +1886,10 @@ export interface components {
             updatedAt: string;
         };
         UserInvite: {
-            /** @example sam.carter@example.com */
+            /**
+             * Format: email
+             * @example sam.carter@example.com
+             */
             email: string;
             name: string;
             role: components["schemas"]["Role"];

@@ -112,10 +112,15 @@ type JsonSchema = {
   required?: string[];
   items?: JsonSchema;
   format?: string;
+  pattern?: string;
   minimum?: number;
   maximum?: number;
+  exclusiveMinimum?: number;
+  exclusiveMaximum?: number;
   minLength?: number;
   maxLength?: number;
+  minItems?: number;
+  maxItems?: number;
 };
 
 /** A zod schema as JSON Schema (input side), or undefined when zod cannot describe it. */
@@ -128,73 +133,109 @@ export function jsonSchemaOf(schema: z.ZodType | undefined): JsonSchema | undefi
   }
 }
 
-function typedString(s: JsonSchema): fc.Arbitrary<string> {
-  const options: Array<fc.WeightedArbitrary<string>> = [{ arbitrary: adversarialString, weight: 2 }];
-  if (s.format === 'date-time' || s.format === 'date') {
-    options.push({ arbitrary: fc.date({ noInvalidDate: true }).map((d) => d.toISOString()), weight: 4 });
-  }
-  if (s.format === 'uuid') options.push({ arbitrary: fc.uuid(), weight: 4 });
-  if (s.format === 'email') options.push({ arbitrary: fc.emailAddress(), weight: 4 });
+/**
+ * Two ways to walk a schema. `valid`: values the schema accepts as far as its JSON Schema says (bounds,
+ * lengths, enums, required keys, no unknown keys), so requests reach the services and the database with
+ * edge-case contents. `hostile`: the same shapes with out-of-range, wrong-typed, missing and unknown
+ * parts mixed in, so the validators and their messages are exercised.
+ */
+type Mode = 'valid' | 'hostile';
+
+/** Field names that hold instants: epoch milliseconds or ISO 8601. */
+const TIME_FIELD = /(time|start|^from$|^to$|At$|date)/i;
+
+const instant = fc.oneof(
+  fc.integer({ min: 1_500_000_000_000, max: 2_000_000_000_000 }),
+  fc.date({ noInvalidDate: true, min: new Date('2001-01-01'), max: new Date('2099-01-01') }).map((d) => d.toISOString()),
+);
+
+function typedString(s: JsonSchema, mode: Mode, name: string): fc.Arbitrary<string> {
   const min = s.minLength ?? 0;
   const max = Math.min(s.maxLength ?? 60, 300);
-  if (max >= min) options.push({ arbitrary: fc.string({ minLength: min, maxLength: Math.min(max, min + 40) }), weight: 6 });
-  if (s.maxLength !== undefined) {
-    options.push({ arbitrary: fc.constantFrom('y'.repeat(s.maxLength), 'y'.repeat(s.maxLength + 1)), weight: 1 });
+  const valid: Array<fc.WeightedArbitrary<string>> = [];
+  if (s.format === 'date-time' || s.format === 'date' || TIME_FIELD.test(name)) valid.push({ arbitrary: instant.map(String), weight: 4 });
+  if (s.format === 'uuid') valid.push({ arbitrary: fc.uuid(), weight: 4 });
+  if (s.format === 'email') valid.push({ arbitrary: fc.emailAddress(), weight: 4 });
+  if (s.pattern) {
+    try {
+      valid.push({ arbitrary: fc.stringMatching(new RegExp(s.pattern)).filter((x) => x.length >= min && x.length <= max), weight: 4 });
+    } catch {
+      // a pattern fast-check cannot generate from
+    }
   }
-  return fc.oneof(...options);
+  // Trimmed schemas refuse leading or trailing blanks counted in the length; keep a visible character at each end.
+  if (max >= min) valid.push({ arbitrary: fc.string({ minLength: Math.max(min, 1), maxLength: Math.max(Math.min(max, min + 40), 1) }).map((x) => `a${x.trim()}z`.slice(0, Math.max(max, 1))), weight: 6 });
+  if (mode === 'valid') return fc.oneof(...valid);
+  return fc.oneof(
+    ...valid,
+    { arbitrary: adversarialString, weight: 3 },
+    ...(s.maxLength !== undefined ? [{ arbitrary: fc.constantFrom('y'.repeat(s.maxLength), 'y'.repeat(s.maxLength + 1)), weight: 1 }] : []),
+  );
 }
 
-function typedNumber(s: JsonSchema, integer: boolean): fc.Arbitrary<number> {
-  const edges = [s.minimum, s.maximum].filter((v): v is number => typeof v === 'number' && Math.abs(v) < 1e15);
+function typedNumber(s: JsonSchema, integer: boolean, mode: Mode, name: string): fc.Arbitrary<number> {
+  const tiny = integer ? 1 : 1e-9;
+  const lo = s.minimum ?? (s.exclusiveMinimum !== undefined ? s.exclusiveMinimum + tiny : TIME_FIELD.test(name) ? 1_500_000_000_000 : -1e6);
+  const hi = s.maximum ?? (s.exclusiveMaximum !== undefined ? s.exclusiveMaximum - tiny : TIME_FIELD.test(name) ? 2_000_000_000_000 : 1e6);
+  const min = Math.max(lo, -1e13);
+  const max = Math.max(min, Math.min(hi, 1e13));
+  const inRange = integer ? fc.integer({ min: Math.ceil(min), max: Math.max(Math.ceil(min), Math.floor(max)) }) : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+  if (mode === 'valid') return inRange;
+  const edges = [s.minimum, s.maximum, s.exclusiveMinimum, s.exclusiveMaximum].filter((v): v is number => typeof v === 'number' && Math.abs(v) < 1e15);
   const near = edges.flatMap((v) => [v, v - 1, v + 1, v - 0.5, v + 0.5]);
-  const inRange = integer
-    ? fc.integer({ min: Math.max(s.minimum ?? -1e6, -1e9), max: Math.min(s.maximum ?? 1e6, 1e9) })
-    : fc.double({ min: Math.max(s.minimum ?? -1e6, -1e12), max: Math.min(s.maximum ?? 1e6, 1e12), noNaN: true });
   return fc.oneof({ arbitrary: inRange, weight: 4 }, { arbitrary: extremeNumber, weight: 2 }, ...(near.length ? [{ arbitrary: fc.constantFrom(...near), weight: 1 }] : []));
 }
 
 /**
- * Values shaped like the schema most of the time (right keys, right types, edge-case contents) and
- * anything at all the rest of the time, so both the validator and the code behind it are exercised.
+ * Values for a schema: most cases valid as far as the schema says, the rest hostile (see Mode), so both
+ * the code behind the validators and the validators themselves are exercised.
  */
-export function valueFor(schema: JsonSchema | undefined, depth = 0): fc.Arbitrary<unknown> {
-  if (!schema || depth > 5) return wildJson;
-  const typed = typedValueFor(schema, depth);
-  return fc.oneof({ arbitrary: typed, weight: 19 }, { arbitrary: wildJson, weight: 1 });
+export function valueFor(schema: JsonSchema | undefined, name = ''): fc.Arbitrary<unknown> {
+  if (!schema) return wildJson;
+  return fc.oneof({ arbitrary: shapedValue(schema, 0, 'valid', name), weight: 1 }, { arbitrary: shapedValue(schema, 0, 'hostile', name), weight: 1 });
 }
 
-function typedValueFor(s: JsonSchema, depth: number): fc.Arbitrary<unknown> {
+function shapedValue(s: JsonSchema | undefined, depth: number, mode: Mode, name: string): fc.Arbitrary<unknown> {
+  if (!s || depth > 6) return mode === 'valid' ? fc.constant(null) : wildJson;
+  const typed = typedValueFor(s, depth, mode, name);
+  return mode === 'valid' ? typed : fc.oneof({ arbitrary: typed, weight: 12 }, { arbitrary: wildJson, weight: 1 });
+}
+
+function typedValueFor(s: JsonSchema, depth: number, mode: Mode, name: string): fc.Arbitrary<unknown> {
   if (s.const !== undefined) return fc.constant(s.const);
-  if (s.enum && s.enum.length > 0) return fc.oneof({ arbitrary: fc.constantFrom(...s.enum), weight: 5 }, { arbitrary: adversarialString, weight: 1 });
+  if (s.enum && s.enum.length > 0) {
+    return mode === 'valid' ? fc.constantFrom(...s.enum) : fc.oneof({ arbitrary: fc.constantFrom(...s.enum), weight: 5 }, { arbitrary: adversarialString, weight: 1 });
+  }
   const alternatives = s.anyOf ?? s.oneOf;
-  if (alternatives && alternatives.length > 0) return fc.oneof(...alternatives.map((a) => valueFor(a, depth + 1)));
-  if (s.allOf && s.allOf.length > 0) return valueFor(s.allOf[0], depth + 1);
+  if (alternatives && alternatives.length > 0) return fc.oneof(...alternatives.map((a) => shapedValue(a, depth + 1, mode, name)));
+  if (s.allOf && s.allOf.length > 0) return shapedValue(s.allOf[0], depth + 1, mode, name);
   const types = Array.isArray(s.type) ? s.type : s.type ? [s.type] : [];
-  if (types.length > 1) return fc.oneof(...types.map((type) => typedValueFor({ ...s, type }, depth)));
+  if (types.length > 1) return fc.oneof(...types.map((type) => typedValueFor({ ...s, type }, depth, mode, name)));
   switch (types[0]) {
     case 'string':
-      return typedString(s);
+      return typedString(s, mode, name);
     case 'number':
-      return typedNumber(s, false);
+      return typedNumber(s, false, mode, name);
     case 'integer':
-      return typedNumber(s, true);
+      return typedNumber(s, true, mode, name);
     case 'boolean':
       return fc.boolean();
     case 'null':
       return fc.constant(null);
     case 'array':
-      return fc.array(valueFor(s.items, depth + 1), { maxLength: 12 });
+      return fc.array(shapedValue(s.items, depth + 1, mode, name), { minLength: s.minItems ?? 0, maxLength: Math.min(s.maxItems ?? 12, 12) });
     case 'object':
-      return objectFor(s, depth);
+      return objectFor(s, depth, mode);
     default:
-      return wildJson;
+      return mode === 'valid' ? fc.constant(null) : wildJson;
   }
 }
 
-function objectFor(s: JsonSchema, depth: number): fc.Arbitrary<Record<string, unknown>> {
+function objectFor(s: JsonSchema, depth: number, mode: Mode): fc.Arbitrary<Record<string, unknown>> {
   const properties = s.properties ?? {};
   const required = (s.required ?? []).filter((k) => k in properties);
-  const shaped = fc.record(Object.fromEntries(Object.keys(properties).map((k) => [k, valueFor(properties[k], depth + 1)])), { requiredKeys: required });
+  const shaped = fc.record(Object.fromEntries(Object.keys(properties).map((k) => [k, shapedValue(properties[k], depth + 1, mode, k)])), { requiredKeys: required });
+  if (mode === 'valid') return shaped;
   return fc
     .tuple(
       shaped,
@@ -210,13 +251,22 @@ function objectFor(s: JsonSchema, depth: number): fc.Arbitrary<Record<string, un
     });
 }
 
-/** Query-string values for a query schema: typed values as strings, repeated keys, unknown keys. */
+const asQueryValue = (v: unknown) => (typeof v === 'string' ? v : (JSON.stringify(v) ?? ''));
+
+/**
+ * Query strings for a query schema: half the time only known parameters with values the schema
+ * accepts, otherwise hostile values, repeated keys, operator-looking keys and unknown keys.
+ */
 export function queryFor(schema: JsonSchema | undefined): fc.Arbitrary<Array<[string, string]>> {
   const properties = schema?.properties ?? {};
-  const known = Object.keys(properties).map((key) =>
+  const keys = Object.keys(properties);
+  const valid = fc
+    .tuple(...keys.map((key) => fc.option(shapedValue(properties[key], 0, 'valid', key).map((v) => [key, asQueryValue(v)] as [string, string]), { freq: 2 })))
+    .map((picked) => picked.filter((p): p is [string, string] => p !== null));
+  const known = keys.map((key) =>
     fc.option(
       fc.oneof(
-        { arbitrary: valueFor(properties[key]).map((v) => [[key, typeof v === 'string' ? v : JSON.stringify(v) ?? '']] as Array<[string, string]>), weight: 6 },
+        { arbitrary: shapedValue(properties[key], 0, 'hostile', key).map((v) => [[key, asQueryValue(v)]] as Array<[string, string]>), weight: 6 },
         { arbitrary: fc.array(adversarialString, { minLength: 2, maxLength: 3 }).map((vs) => vs.map((v) => [key, v] as [string, string])), weight: 1 },
         { arbitrary: adversarialString.map((v) => [[`${key}[$ne]`, v]] as Array<[string, string]>), weight: 1 },
       ),
@@ -224,7 +274,8 @@ export function queryFor(schema: JsonSchema | undefined): fc.Arbitrary<Array<[st
     ),
   );
   const unknown = fc.oneof({ arbitrary: fc.constant([]), weight: 4 }, { arbitrary: fc.array(fc.tuple(adversarialString, adversarialString), { minLength: 1, maxLength: 2 }), weight: 1 });
-  return fc.tuple(fc.tuple(...known), unknown).map(([picked, extra]) => [...picked.flatMap((p) => p ?? []), ...extra]);
+  const hostile = fc.tuple(fc.tuple(...known), unknown).map(([picked, extra]) => [...picked.flatMap((p) => p ?? []), ...extra]);
+  return fc.oneof(valid, hostile);
 }
 
 /** Column names an uploader might use, plus hostile ones. */
@@ -260,6 +311,17 @@ export const jsonText: fc.Arbitrary<string> = fc.oneof(
   fc.constantFrom('{', '[1,2', '{"a":1}{"b":2}', '\uFEFF[1]', 'null', '"x"', '[1e400]', ' '),
   // Nesting far deeper than any client sends: parsers and validators must not recurse into a crash.
   fc.integer({ min: 5_000, max: 100_000 }).map((depth) => `{"samples":${'['.repeat(depth)}${']'.repeat(depth)}}`),
+);
+
+/** Well-formed sample batches (increasing times after any fixture's samples, finite readings), as the formats want them. */
+const validSeries = fc
+  .tuple(fc.integer({ min: 1_800_000_000_000, max: 1_900_000_000_000 }), fc.array(fc.double({ min: -500, max: 500, noNaN: true }), { minLength: 1, maxLength: 300 }), fc.integer({ min: 1, max: 60_000 }))
+  .map(([start, a, stepMs]) => ({ t: a.map((_, i) => start + i * stepMs), a }));
+
+export const validSampleText: fc.Arbitrary<{ contentType: string; text: string }> = fc.oneof(
+  validSeries.map((s) => ({ contentType: 'application/json', text: JSON.stringify(s) })),
+  validSeries.map((s) => ({ contentType: 'application/x-ndjson', text: s.t.map((t, i) => JSON.stringify({ t, a: s.a[i] })).join('\n') })),
+  validSeries.map((s) => ({ contentType: 'text/csv', text: `time,amps\n${s.t.map((t, i) => `${new Date(t).toISOString()},${s.a[i]}`).join('\n')}\n` })),
 );
 
 /** Binary bodies: random bytes, float64 samples with NaN and infinities, odd lengths. */

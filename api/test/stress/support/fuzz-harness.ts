@@ -9,7 +9,7 @@ import request from 'supertest';
 import type { RouteDefinition } from '../../../src/routes/define-route.js';
 import { mintCredentials } from '../../../src/testing/credentials.js';
 import type { TestApp } from '../../../src/testing/make-test-app.js';
-import { CONTENT_TYPES, adversarialString, binaryBody, csvText, headerValue, jsonSchemaOf, jsonText, ndjsonText, queryFor, valueFor, wildJson } from './arbitraries.js';
+import { CONTENT_TYPES, adversarialString, binaryBody, csvText, headerValue, jsonSchemaOf, jsonText, ndjsonText, queryFor, validSampleText, valueFor, wildJson } from './arbitraries.js';
 
 /** Who sends the request. */
 export type Caller = 'admin' | 'engineer' | 'viewer' | 'ingest-key' | 'read-key' | 'none' | 'garbage';
@@ -55,6 +55,10 @@ function bodyArbitrary(route: RouteDefinition): fc.Arbitrary<Body> {
   if (spec.body) {
     options.push({ arbitrary: valueFor(jsonSchemaOf(spec.body)).map((value): Body => ({ kind: 'json', value })), weight: 15 });
   }
+  const rawTypes = Object.keys(spec.rawBody?.contentTypes ?? {});
+  if (rawTypes.some((t) => t.includes('csv') || t.includes('ndjson'))) {
+    options.push({ arbitrary: validSampleText.filter((b) => rawTypes.includes(b.contentType)).map((b): Body => ({ kind: 'text', ...b })), weight: 6 });
+  }
   for (const [contentType, media] of Object.entries(spec.rawBody?.contentTypes ?? {})) {
     if (contentType.startsWith('multipart/')) {
       const fieldSchema = jsonSchemaOf(media.schema);
@@ -68,8 +72,13 @@ function bodyArbitrary(route: RouteDefinition): fc.Arbitrary<Body> {
             field: fc.constantFrom(...(fieldNames.length ? fieldNames : ['file']), 'other'),
             filename: fc.oneof(fc.constantFrom(...FILENAMES), adversarialString),
             contentType: fc.constantFrom('text/csv', 'application/octet-stream', 'text/plain', 'image/png'),
-            content: fc.oneof(csvText.map((t) => Buffer.from(t)), binaryBody, fc.constant(Buffer.alloc(0))),
-            fields: fc.tuple(...fields.map(([name, s]) => fc.option(valueFor(s as never).map((v) => [name, typeof v === 'string' ? v : JSON.stringify(v) ?? ''] as [string, string])))),
+            content: fc.oneof(
+              { arbitrary: validSampleText.filter((b) => b.contentType === 'text/csv').map((b) => Buffer.from(b.text)), weight: 3 },
+              { arbitrary: csvText.map((t) => Buffer.from(t)), weight: 2 },
+              { arbitrary: binaryBody, weight: 1 },
+              { arbitrary: fc.constant(Buffer.alloc(0)), weight: 1 },
+            ),
+            fields: fc.tuple(...fields.map(([name, s]) => fc.option(valueFor(s as never, name).map((v) => [name, typeof v === 'string' ? v : JSON.stringify(v) ?? ''] as [string, string]), { freq: 8 }))),
           })
           .map(({ field, filename, contentType: ct, content, fields: fs }): Body => ({
             kind: 'multipart',

@@ -3,9 +3,9 @@ import { PERMISSIONS } from '../../../auth/permissions.js';
 import { KEY_SCOPES } from '../../../models/api-key.js';
 import { ROLES } from '../../../models/user.js';
 import { AUDIT_ACTIONS } from '../../../services/audit.js';
-import { Id, Pagination, Timestamp, pageOf, z } from './common.js';
+import { Id, Pagination, Timestamp, emailAddress, pageOf, z } from './common.js';
 
-const Email = z.string().trim().max(320).pipe(z.email('must be an e-mail address')).openapi({ example: 'sam.carter@example.com' });
+const Email = emailAddress().openapi({ example: 'sam.carter@example.com' });
 const Password = z
   .string()
   .min(PASSWORD_MIN_LENGTH, `must be at least ${PASSWORD_MIN_LENGTH} characters`)

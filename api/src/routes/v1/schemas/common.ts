@@ -7,6 +7,23 @@ export { z };
 
 export const Id = z.string().min(1).max(64).openapi({ description: 'Identifier', example: '0b6f4c9e-2f7d-4f1c-9d55-1f0c3a6e2b11' });
 
+/**
+ * An e-mail address a mail server will take: the form zod checks, and the lengths of RFC 5321 §4.5.3.1
+ * (local part at most 64 octets, domain at most 255), so a refused recipient is a 400 here rather than a
+ * 503 from the mail server later.
+ */
+export const emailAddress = (message = 'must be an e-mail address') =>
+  z
+    .string()
+    .trim()
+    .max(320)
+    .pipe(z.email(message))
+    .refine((address) => {
+      const at = address.lastIndexOf('@');
+      return Buffer.byteLength(address.slice(0, at)) <= 64 && Buffer.byteLength(address.slice(at + 1)) <= 255;
+    }, 'the part before @ must be at most 64 characters (RFC 5321)')
+    .openapi({ format: 'email' });
+
 export const Timestamp = z.string().openapi({ description: 'ISO 8601 date-time', example: '2026-11-30T09:15:00.000Z' });
 
 export const Pagination = z.object({

@@ -1,4 +1,4 @@
-import { z } from './common.js';
+import { emailAddress, z } from './common.js';
 
 export const ReportQuery = z.object({
   format: z.enum(['pdf', 'csv']).default('pdf').openapi({ description: 'pdf (printable report) or csv (figures and events, one per row)' }),
@@ -6,7 +6,7 @@ export const ReportQuery = z.object({
 
 export const ReportEmail = z
   .object({
-    to: z.string().trim().email('must be an e-mail address').max(320).openapi({ example: 'bookings@millbrook-hall.test' }),
+    to: emailAddress().openapi({ example: 'bookings@millbrook-hall.test' }),
     message: z.string().trim().max(2000).optional().openapi({ description: 'A note placed above the summary in the e-mail' }),
   })
   .strict()
