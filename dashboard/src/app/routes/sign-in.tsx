@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { Link, Navigate, useLocation, useNavigate, useSearchParams } from 'react-router';
+import { Navigate, useLocation, useNavigate, useSearchParams } from 'react-router';
 import { AuthCard } from '../../features/auth/components/auth-card';
 import { ForgotPasswordForm } from '../../features/auth/components/password-forms';
 import { SignInForm } from '../../features/auth/components/sign-in-form';
-import { paths, safeNextPath } from '../../lib/paths';
+import { safeNextPath } from '../../lib/paths';
 import { useSession, type SignedOutReason } from '../../lib/session';
 
 export default function SignInPage() {
@@ -37,9 +37,6 @@ export default function SignInPage() {
             <button type="button" className="text-ink-700 underline" onClick={() => setForgot(true)}>
               Forgot your password?
             </button>
-            <Link to={paths.home.href()} className="sr-only">
-              Home
-            </Link>
           </div>
         </>
       )}
