@@ -229,14 +229,13 @@ export async function readCsvSamples(chunks: AsyncIterable<Buffer>, options: Csv
       decimalKnown = true;
     }
     const reading = parseDecimal(rawValue, decimalComma);
-    const column = () => columnOf(fields, layout.value);
-    if (rawValue === '') return addError({ detail: `empty reading in column "${header[layout.value]}" (use missing= to skip such rows)`, line, column: column() });
+    if (rawValue === '') return addError({ detail: `empty reading in column "${header[layout.value]}" (use missing= to skip such rows)`, line, column: columnOf(fields, layout.value) });
     if (Number.isNaN(reading)) {
       const hint = /^(nan|inf|-inf|infinity|-infinity)$/i.test(rawValue) ? `${rawValue} is not a reading` : `"${rawValue}" is not a number${decimalComma ? ' (decimal comma)' : ''}`;
-      return addError({ detail: hint, line, column: column() });
+      return addError({ detail: hint, line, column: columnOf(fields, layout.value) });
     }
     const problem = readingProblem(reading * factor);
-    if (problem) return addError({ detail: `the reading is ${problem}`, line, column: column() });
+    if (problem) return addError({ detail: `the reading is ${problem}`, line, column: columnOf(fields, layout.value) });
     if (layout.time >= 0) {
       const timeText = layout.date >= 0 ? `${(fields[layout.date] as string).trim()} ${(fields[layout.time] as string).trim()}` : (fields[layout.time] as string);
       let us: number;

@@ -39,9 +39,10 @@ export async function readNdjsonSamples(chunks: AsyncIterable<Buffer>, timestamp
     if (typeof record !== 'object' || record === null || Array.isArray(record)) {
       fail([{ detail: 'each line must be an object {"t": ..., "a": ...}', line }]);
     }
-    const { t, a, ...rest } = record as Record<string, unknown>;
-    const unknown = Object.keys(rest);
-    if (unknown.length > 0) fail([{ detail: `unknown member "${unknown[0]}"; each line holds t and a`, line }]);
+    const { t, a } = record as Record<string, unknown>;
+    for (const key in record as object) {
+      if (key !== 't' && key !== 'a') fail([{ detail: `unknown member "${key}"; each line holds t and a`, line }]);
+    }
     if (typeof t !== 'number' && typeof t !== 'string') fail([{ detail: 't must be a timestamp (number or string)', line }]);
     if (typeof a !== 'number') fail([{ detail: a === undefined ? 'a is missing' : 'a must be a number', line }]);
     const problem = readingProblem(a as number);
