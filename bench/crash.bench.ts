@@ -20,7 +20,8 @@ const ok = report.missing.length === 0 && report.duplicated.length === 0 && repo
 console.log(`seed ${seed}, load average ${loadavg()[0]!.toFixed(1)}`);
 console.log(`batches acknowledged       ${report.acknowledged} / ${batches} (${report.samplesPerBatch} samples each)`);
 console.log(`SIGKILLs                   ${report.kills} (${report.midBodyKills} half-way through a body, ${report.killsInFlight} with a batch in flight)`);
-console.log(`batches retried            ${report.retried} (${report.replayed} answered from the idempotency record), ${report.attempts} requests in all`);
+console.log(`batches retried            ${report.retried} after a kill (${report.replayed} answered from the idempotency record), ${report.attempts} requests in all`);
+console.log(`answers lost on purpose    ${report.resent} batches sent again with their key: first answer returned, nothing stored twice`);
 console.log(`missing / stored twice     ${report.missing.length} / ${report.duplicated.length}; stray samples ${report.foreign}`);
 console.log(`integrity_check            ${report.integrity.join('; ')}`);
 console.log(`restart to ready           median ${(median / 1000).toFixed(1)} s, max ${((sorted[sorted.length - 1] ?? 0) / 1000).toFixed(1)} s`);

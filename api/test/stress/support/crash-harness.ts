@@ -28,6 +28,8 @@ export interface CrashScenario {
   kills: number;
   /** Seed for the kill timing, so a failing run can be replayed. */
   seed: number;
+  /** Share of acknowledged batches sent a second time with the same key (a lost answer); default 0.1. */
+  resendShare?: number;
   log?: (line: string) => void;
 }
 
@@ -42,8 +44,10 @@ export interface CrashReport {
   acknowledged: number;
   /** Batches that needed more than one attempt. */
   retried: number;
-  /** Retries answered from the idempotency record (`Idempotent-Replayed: true`). */
+  /** Retries after a kill answered from the idempotency record (`Idempotent-Replayed: true`). */
   replayed: number;
+  /** Acknowledged batches sent again with their key and answered with the first answer. */
+  resent: number;
   attempts: number;
   /** Batches found 0, 2 or more times (must be empty). */
   missing: number[];
@@ -144,6 +148,7 @@ export async function runCrashScenario(s: CrashScenario): Promise<CrashReport> {
     };
 
     let acknowledged = 0;
+    let resent = 0;
     let retried = 0;
     let replayed = 0;
     let attempts = 0;
@@ -157,7 +162,8 @@ export async function runCrashScenario(s: CrashScenario): Promise<CrashReport> {
       if (mode === 'mid-body') midBodyKills += 1;
       let killed: () => void = () => {};
       const killDone = new Promise<void>((resolve) => (killed = resolve));
-      if (mode === 'random') killing = sleep(rand() * typicalRoundTripMs).then(killNow);
+      // Late in the round trip, where the server has often committed but not yet answered.
+      if (mode === 'random') killing = sleep((0.5 + 0.6 * rand()) * typicalRoundTripMs).then(killNow);
       const init = (attempt: number): RequestInit => {
         const headers = { ...auth, 'Content-Type': 'application/json', 'Idempotency-Key': `crash-batch-${k}` };
         if (mode !== 'mid-body' || attempt > 1) return { method: 'POST', headers, body };
@@ -187,6 +193,16 @@ export async function runCrashScenario(s: CrashScenario): Promise<CrashReport> {
       const text = await res.text();
       if (res.status !== 200) throw new Error(`batch ${k}: ${res.status} ${text}`);
       acknowledged += 1;
+      // An answer lost on the way (a dropped connection, a client that timed out): the client sends the
+      // batch again with its key, and must get the first answer back without a second copy stored.
+      if (rand() < (s.resendShare ?? 0.1)) {
+        const again = await persist(`${base}/traces/${traceId}/samples`, init(2));
+        const againText = await again.res.text();
+        if (again.res.status !== 200 || again.res.headers.get('idempotent-replayed') !== 'true' || againText !== text) {
+          throw new Error(`batch ${k} sent again: ${again.res.status} replayed=${again.res.headers.get('idempotent-replayed')} ${againText}`);
+        }
+        resent += 1;
+      }
     }
     await killing;
 
@@ -225,6 +241,7 @@ export async function runCrashScenario(s: CrashScenario): Promise<CrashReport> {
       acknowledged,
       retried,
       replayed,
+      resent,
       attempts,
       missing,
       duplicated,
