@@ -43,6 +43,8 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   // Client addresses (rate limits, audit log) come from the socket unless TRUST_PROXY names the proxies.
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
+  // More API requests at once than the server can work on are refused first of all, cheaply, with 503.
+  app.use('/api/v1', loadShedding({ maxInFlight: config.maxConcurrentRequests, logger }));
   app.use(requestLogging(logger));
   // CORS is off unless CORS_ORIGINS lists the browser origins allowed to call the API (bearer tokens,
   // no cookies, so no credentials mode).
@@ -86,8 +88,6 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
-  // More requests at once than the server can work on are refused at once with 503 + Retry-After.
-  v1.use(loadShedding({ maxInFlight: config.maxConcurrentRequests }));
   const limits = rateLimits(config);
   v1.use(limits.perAddress);
   // Account routes take small bodies; a body parsed here is not parsed again below.

@@ -1,8 +1,8 @@
 import express from 'express';
 import { once } from 'node:events';
 import type { AddressInfo } from 'node:net';
+import pino from 'pino';
 import { afterEach, describe, expect, it } from 'vitest';
-import { problemDetails } from './problem-details.js';
 import { loadShedding } from './load-shedding.js';
 
 /** An app whose one route waits until the test lets it answer. */
@@ -15,7 +15,6 @@ async function heldApp(maxInFlight: number) {
     await new Promise<void>((resolve) => waiting.push(resolve));
     res.json({ done: true });
   });
-  app.use(problemDetails);
   const server = app.listen(0, '127.0.0.1');
   await once(server, 'listening');
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/work`;
@@ -42,7 +41,8 @@ describe('load shedding', () => {
     expect(refused.status).toBe(503);
     expect(refused.headers.get('retry-after')).toBe('2');
     expect(refused.headers.get('content-type')).toMatch(/application\/problem\+json/);
-    expect(await refused.json()).toMatchObject({ type: '/problems/unavailable', status: 503, retryAfterS: 2 });
+    expect(await refused.json()).toMatchObject({ type: '/problems/unavailable', status: 503, instance: '/work', retryAfterS: 2 });
+    expect(h.shedding.refused()).toBe(1);
 
     h.waiting.shift()!();
     expect((await first).status).toBe(200);
@@ -68,5 +68,22 @@ describe('load shedding', () => {
     await until(() => h.shedding.inFlight() === 0);
     expect(h.shedding.inFlight()).toBe(0);
     for (const release of h.waiting.splice(0)) release();
+  });
+
+  it('when many requests are refused, then the log gets one summary line, not one per request', async () => {
+    const lines: string[] = [];
+    const logger = pino({ level: 'info' }, { write: (line: string) => lines.push(line) });
+    const shedding = loadShedding({ maxInFlight: 0, logger, summaryEveryMs: 60_000 });
+    const app = express();
+    app.use(shedding);
+    const server = app.listen(0, '127.0.0.1');
+    await once(server, 'listening');
+    close = () => new Promise((resolve) => server.close(resolve));
+    const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/`;
+    const answers = await Promise.all(Array.from({ length: 20 }, () => fetch(url).then((r) => r.status)));
+    expect(answers).toEqual(Array(20).fill(503));
+    expect(shedding.refused()).toBe(20);
+    expect(lines).toHaveLength(1);
+    expect(JSON.parse(lines[0]!)).toMatchObject({ msg: 'load shedding: requests refused with 503', refused: 1, maxInFlight: 0 });
   });
 });
