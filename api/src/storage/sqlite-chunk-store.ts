@@ -123,9 +123,9 @@ export class SqliteChunkStore implements ChunkStore {
    * stage, not one per statement), then COMMIT — or ROLLBACK when a statement fails or a stage's check
    * refuses its change counts. Returns whether it committed.
    *
-   * Only statements that are harmless on their own go in a stage together (inserts of new chunks at
-   * places no reader sees): should SQLite abandon the transaction on a disk error, the statements
-   * after the failing one in the same stage would run outside it.
+   * A stage holds one statement that matters and, after it, only statements harmless on their own
+   * (inserts of new chunks at places no reader sees): should SQLite abandon the transaction on a disk
+   * error, the statements after the failing one in the same stage would run outside it.
    */
   private transact(stages: Stage[]): Promise<boolean> {
     const next = this.writeQueue.then(async () => {
@@ -223,9 +223,10 @@ export class SqliteChunkStore implements ChunkStore {
   commit(batch: BatchCommit): Promise<boolean> {
     const s = batch.state;
     const stages: Stage[] = [
-      // New chunks first, all at once: until the UPDATE below raises chunkCount no reader sees them.
-      { statements: this.insertChunks(batch.traceId, batch.organisationId, batch.chunks) },
       {
+        // The conditional UPDATE first, then the new chunks (places no reader sees until chunkCount is
+        // raised): should SQLite abandon the transaction on a disk error, whatever runs after it here
+        // outside the transaction is such a chunk, which nothing reads.
         statements: [
           [
             `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
@@ -237,6 +238,7 @@ export class SqliteChunkStore implements ChunkStore {
               batch.traceId, batch.organisationId, batch.expectedChunkCount,
             ],
           ],
+          ...this.insertChunks(batch.traceId, batch.organisationId, batch.chunks),
         ],
         check: (changes) => changes[0] === 1,
       },
