@@ -12,7 +12,8 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 
 find_bin_dir() {
-  ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1
+  # No match is not an error here: it means PostgreSQL is not installed yet.
+  { ls -d /usr/lib/postgresql/*/bin 2>/dev/null || true; } | sort -V | tail -n 1
 }
 
 skip_or_fail() {
