@@ -16,6 +16,17 @@ describe('chunk codec', () => {
     );
   });
 
+  it('when steps sit on the int32 and varint byte boundaries, then they decode exactly', () => {
+    // source: LEB128 (DWARF 5, section 7.6); 2^31 is where the encoder leaves int32 arithmetic.
+    const steps = [1, 0x7f, 0x80, 0x3fff, 0x4000, 0x7fffffff, 0x80000000, 0x80000001, 2 ** 32, 2 ** 35 + 3, 1];
+    const times = new Float64Array(steps.length + 1);
+    times[0] = 1_772_438_400_000_000;
+    steps.forEach((s, i) => (times[i + 1] = (times[i] as number) + s));
+    const blob = encodeTimes(times, 0, times.length);
+    expect(Array.from(decodeTimes(blob, times[0] as number, times.length))).toEqual(Array.from(times));
+    expect(encodeTimes(Float64Array.from([0, 0x7f, 0x7f + 0x80]), 0, 3).byteLength).toBe(3);
+  });
+
   it('when float32 values are encoded, then they decode bit for bit, NaN payloads aside', () => {
     fc.assert(
       fc.property(fc.float32Array({ noNaN: true, maxLength: 300 }), (values) => {
