@@ -11,6 +11,13 @@ import type { RefusalReason } from './sessions.js';
 
 /** `lastUsedAt` is written at most this often per key, so busy ingest keys do not write on every request. */
 const LAST_USED_RESOLUTION_MS = 60_000;
+/**
+ * A key found valid is trusted for this long without reading it again, so a busy ingest key costs no
+ * database read per request. Revoking or rotating through this process takes effect at once; through
+ * another process (several servers on one PostgreSQL database) within this time.
+ */
+const VERIFIED_KEY_TTL_MS = 5_000;
+const VERIFIED_KEYS_KEPT = 10_000;
 
 export interface ApiKeyInput {
   name: string;
@@ -44,6 +51,22 @@ function statusOf(key: ApiKey, now: Date): ApiKeyView['status'] {
 
 export function createApiKeysService(db: Db, audit: AuditService, logger?: Logger) {
   const { ApiKey, ApiKeyAddress, User } = db.models;
+  /** Recently verified keys: the row as read, the addresses known to be recorded, and until when to trust it. */
+  const verified = new Map<string, { key: ApiKey; addresses: Set<string>; until: number }>();
+
+  async function loadKey(keyId: string, now: Date): Promise<{ key: ApiKey; addresses: Set<string> } | null> {
+    const cached = verified.get(keyId);
+    if (cached && cached.until > now.getTime()) return cached;
+    verified.delete(keyId);
+    const key = await ApiKey.findByPk(keyId);
+    if (!key) return null;
+    const entry = { key, addresses: new Set<string>(), until: now.getTime() + VERIFIED_KEY_TTL_MS };
+    if (!key.revokedAt) {
+      if (verified.size >= VERIFIED_KEYS_KEPT) verified.delete(verified.keys().next().value as string);
+      verified.set(keyId, entry);
+    }
+    return entry;
+  }
 
   async function views(keys: ApiKey[], now = new Date()): Promise<ApiKeyView[]> {
     const creatorIds = [...new Set(keys.map((k) => k.createdByUserId).filter((id): id is string => id !== null))];
@@ -77,8 +100,10 @@ export function createApiKeysService(db: Db, audit: AuditService, logger?: Logge
   }
 
   /** Records the address a key is used from; the first use from each address goes to the audit log. */
-  async function noteAddress(key: ApiKey, address: string, now: Date): Promise<void> {
-    const known = await ApiKeyAddress.findOne({ where: { apiKeyId: key.id, address } });
+  async function noteAddress(key: ApiKey, addresses: Set<string>, address: string, now: Date): Promise<void> {
+    const stale = !key.lastUsedAt || now.getTime() - key.lastUsedAt.getTime() >= LAST_USED_RESOLUTION_MS;
+    if (addresses.has(address) && !stale && key.lastUsedFrom === address) return;
+    const known = addresses.has(address) || (await ApiKeyAddress.findOne({ where: { apiKeyId: key.id, address } })) !== null;
     if (!known) {
       try {
         await ApiKeyAddress.create({ apiKeyId: key.id, address, firstSeenAt: now });
@@ -94,9 +119,12 @@ export function createApiKeysService(db: Db, audit: AuditService, logger?: Logge
         if (!(err instanceof UniqueConstraintError)) throw err;
       }
     }
-    const stale = !key.lastUsedAt || now.getTime() - key.lastUsedAt.getTime() >= LAST_USED_RESOLUTION_MS;
+    addresses.add(address);
     if (stale || key.lastUsedFrom !== address) {
       await ApiKey.update({ lastUsedAt: now, lastUsedFrom: address }, { where: { id: key.id } });
+      // The cached row follows what was written (it is never saved itself).
+      key.lastUsedAt = now;
+      key.lastUsedFrom = address;
     }
   }
 
@@ -143,6 +171,7 @@ export function createApiKeysService(db: Db, audit: AuditService, logger?: Logge
       const key = await find(scope, id);
       if (key.revokedAt) return;
       await key.update({ revokedAt: now });
+      verified.delete(id);
       await audit.recordFor(scope, 'api-key.revoked', { kind: 'api-key', id, label: key.name });
     },
 
@@ -153,6 +182,7 @@ export function createApiKeysService(db: Db, audit: AuditService, logger?: Logge
       if (status !== 'active') throw conflict(`The API key is ${status}; create a new key instead`);
       const secret = randomSecret();
       await key.update({ secretHash: hashSecret(secret), rotatedAt: now });
+      verified.delete(id);
       await audit.recordFor(scope, 'api-key.rotated', { kind: 'api-key', id, label: key.name });
       return { apiKey: await view(key), secret: formatApiKey(id, secret) };
     },
@@ -164,12 +194,13 @@ export function createApiKeysService(db: Db, audit: AuditService, logger?: Logge
     async verify(token: string, address: string | undefined, now = new Date()): Promise<{ scope: Scope } | { refused: RefusalReason | 'malformed' }> {
       const parsed = parseApiKey(token);
       if (!parsed) return { refused: 'malformed' };
-      const key = await ApiKey.findByPk(parsed.keyId);
-      if (!key || !sameHash(hashSecret(parsed.secret), key.secretHash)) return { refused: 'unknown' };
+      const found = await loadKey(parsed.keyId, now);
+      const key = found?.key;
+      if (!found || !key || !sameHash(hashSecret(parsed.secret), key.secretHash)) return { refused: 'unknown' };
       if (key.revokedAt) return { refused: 'revoked' };
       if (key.expiresAt && key.expiresAt.getTime() <= now.getTime()) return { refused: 'expired' };
       // Bookkeeping only: if it cannot be written (e.g. the database is busy), the key still works.
-      if (address) await noteAddress(key, address, now).catch((err: unknown) => logger?.warn({ err, keyId: key.id }, 'API key use not recorded'));
+      if (address) await noteAddress(key, found.addresses, address, now).catch((err: unknown) => logger?.warn({ err, keyId: key.id }, 'API key use not recorded'));
       return {
         scope: {
           organisationId: key.organisationId,

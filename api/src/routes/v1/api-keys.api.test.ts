@@ -1,6 +1,17 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+
+/** Runs `request` with the clock moved `ms` ahead (Date only; timers run as usual). */
+async function later<T>(ms: number, send: () => PromiseLike<T>): Promise<T> {
+  vi.useFakeTimers({ toFake: ['Date'] });
+  try {
+    vi.setSystemTime(Date.now() + ms);
+    return await send();
+  } finally {
+    vi.useRealTimers();
+  }
+}
 
 describe('/api/v1/api-keys', () => {
   let t: TestApp;
@@ -55,12 +66,22 @@ describe('/api/v1/api-keys', () => {
   });
 
   it('when a key has expired, then it is refused', async () => {
-    const { apiKey, secret } = await createKey({ name: 'Short-lived', scopes: ['read'], expiresAt: new Date(Date.now() + 3600_000).toISOString() });
+    const { secret } = await createKey({ name: 'Short-lived', scopes: ['read'], expiresAt: new Date(Date.now() + 3600_000).toISOString() });
     expect((await request(t.app).get('/api/v1/sites').set(bearer(secret))).status).toBe(200);
-    await t.db.models.ApiKey.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { id: apiKey.id } });
-    const refused = await request(t.app).get('/api/v1/sites').set(bearer(secret));
+    // Two hours later (the clock only: a key verified a moment ago must not be trusted past its expiry).
+    const refused = await later(2 * 3600_000, () => request(t.app).get('/api/v1/sites').set(bearer(secret)));
     expect(refused.status).toBe(401);
     expect(refused.body.detail).toMatch(/expired/);
+  });
+
+  it('when another server process revokes a key, then this one refuses it within five seconds', async () => {
+    const { apiKey, secret } = await createKey({ name: 'Revoked elsewhere', scopes: ['read'] });
+    expect((await request(t.app).get('/api/v1/sites').set(bearer(secret))).status).toBe(200);
+    // Written straight to the database, as a second server on the same PostgreSQL database would.
+    await t.db.models.ApiKey.update({ revokedAt: new Date() }, { where: { id: apiKey.id } });
+    const refused = await later(5_001, () => request(t.app).get('/api/v1/sites').set(bearer(secret)));
+    expect(refused.status).toBe(401);
+    expect(refused.body.detail).toMatch(/revoked/);
   });
 
   it('when an expiry in the past is asked, then 400 points at it', async () => {
