@@ -7,6 +7,8 @@ export interface Db {
   sequelize: Sequelize;
   models: Models;
   dialect: 'sqlite' | 'postgres';
+  /** Runs `hook` before the connections close (e.g. to finalize prepared statements). */
+  onClose(hook: () => Promise<void>): void;
   close(): Promise<void>;
 }
 
@@ -57,10 +59,15 @@ export async function openDatabase(options: DbOptions): Promise<Db> {
 
   const models = initModels(sequelize);
   if (options.migrate !== false) await migrate(sequelize);
+  const closeHooks: Array<() => Promise<void>> = [];
   return {
     sequelize,
     models,
     dialect: sequelize.getDialect() === 'postgres' ? 'postgres' : 'sqlite',
-    close: () => sequelize.close(),
+    onClose: (hook) => void closeHooks.push(hook),
+    close: async () => {
+      for (const hook of closeHooks.splice(0)) await hook();
+      await sequelize.close();
+    },
   };
 }

@@ -8,6 +8,7 @@ import { Op, type Order, type WhereOptions } from 'sequelize';
 import type { Scope } from '../auth/scope.js';
 import type { Config } from '../config/config.js';
 import type { Db } from '../db/open.js';
+import { SqliteRowReader } from '../db/sqlite-row-reader.js';
 import { Problem, invalid, notFound } from '../errors/problem.js';
 import type { Trace, TraceKind, TraceStatus } from '../models/trace.js';
 import { CachedChunkStore } from '../storage/cached-chunk-store.js';
@@ -80,13 +81,18 @@ function decodeCursor(cursor: string): [string | null, string] {
 
 export function createTracesService(db: Db, config: Config) {
   const { Trace, Site, Circuit, Load } = db.models;
-  const store: ChunkStore = new CachedChunkStore(db.dialect === 'postgres' ? new SequelizeChunkStore(db) : new SqliteChunkStore(db.sequelize));
+  const store: ChunkStore = new CachedChunkStore(db.dialect === 'postgres' ? new SequelizeChunkStore(db) : new SqliteChunkStore(db));
   const queue = new KeyedQueue();
   const idempotency = createIdempotencyStore(db);
 
+  // Every sample batch and chart request looks its trace up: on SQLite, without Sequelize's query path.
+  const rowReader = db.dialect === 'sqlite' ? new SqliteRowReader(db) : null;
+
   /** The trace, or a 404 when it does not exist in the caller's organisation. */
   async function find(scope: Scope, id: string): Promise<Trace> {
-    const trace = await Trace.findOne({ where: { id, organisationId: scope.organisationId } });
+    const trace = rowReader
+      ? await rowReader.findInOrganisation(Trace, id, scope.organisationId)
+      : await Trace.findOne({ where: { id, organisationId: scope.organisationId } });
     if (!trace) throw notFound(`Trace ${id}`);
     return trace;
   }

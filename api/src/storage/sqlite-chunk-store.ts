@@ -6,7 +6,10 @@
  * caps ingest far below the product's targets (bench/ingest.bench.ts). So, on a file database:
  * - writes go through one dedicated connection (`headroom-chunk-writer`), one transaction at a time
  *   (a promise queue), BEGIN IMMEDIATE … COMMIT, with multi-row INSERTs bound as parameters;
- * - reads go through another (`headroom-chunk-reader`), which in WAL mode sees only committed data.
+ * - reads go through another (`headroom-chunk-reader`), which in WAL mode sees only committed data;
+ * - both use prepared statements, kept and reused (db/prepared-statements.ts): one trip to the worker
+ *   thread per statement instead of three. A write transaction is a handful of trips, and each waits
+ *   for the event loop, so the number of trips is what limits how many batches commit per second.
  * Both get the same pragmas as every connection (db/open.ts). Nothing inside a write transaction waits
  * for a Sequelize query, so the two can never wait for each other's lock.
  *
@@ -20,10 +23,12 @@
  */
 import type { Database as SqliteDatabase } from 'sqlite3';
 import type { Sequelize } from 'sequelize';
+import { PreparedStatements, type SqlParam } from '../db/prepared-statements.js';
+import type { Db } from '../db/open.js';
 import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, IdempotencyRecord, StoredChunk } from './chunk-store.js';
 import { SUMMARY_COLUMNS, type ChunkSummaryRow } from './summary-rows.js';
 
-type Param = string | number | null | Buffer;
+type Param = SqlParam;
 type Statement = [sql: string, params: Param[]];
 /** Statements run together, and an optional check of their change counts (false: roll back). */
 interface Stage {
@@ -106,10 +111,20 @@ export class SqliteChunkStore implements ChunkStore {
   private writerReady = false;
   private bytesSinceCheckpoint = 0;
   private checkpointing = false;
+  private readonly prepared = new PreparedStatements();
+  private readonly sequelize: Sequelize;
 
-  constructor(private readonly sequelize: Sequelize) {
-    this.inMemory = (sequelize as unknown as { options: { storage?: string } }).options.storage === ':memory:';
-    this.manager = sequelize.connectionManager as unknown as ConnectionManager;
+  constructor(db: Pick<Db, 'sequelize' | 'onClose'>) {
+    this.sequelize = db.sequelize;
+    this.inMemory = (db.sequelize as unknown as { options: { storage?: string } }).options.storage === ':memory:';
+    this.manager = db.sequelize.connectionManager as unknown as ConnectionManager;
+    db.onClose(() => this.prepared.finalizeAll());
+  }
+
+  /** Rows of a read: through a kept prepared statement on a file database (the in-memory one is short-lived). */
+  private async query<T>(sql: string, params: Param[]): Promise<T[]> {
+    const conn = await this.reader();
+    return this.inMemory ? all<T>(conn, sql, params) : this.prepared.all<T>(conn, sql, params);
   }
 
   private reader(): Promise<SqliteDatabase> {
@@ -118,25 +133,24 @@ export class SqliteChunkStore implements ChunkStore {
 
   /**
    * Runs the stages in one write transaction, after every earlier transaction has finished: BEGIN
-   * IMMEDIATE on its own (the statement that waits for the write lock), then each stage in turn, its
-   * statements queued at once (serialize mode: one trip through the sqlite3 worker thread for the
-   * stage, not one per statement), then COMMIT — or ROLLBACK when a statement fails or a stage's check
-   * refuses its change counts. Returns whether it committed.
+   * IMMEDIATE (the statement that waits for the write lock), then each stage's statements one after the
+   * other, then COMMIT — or ROLLBACK when a statement fails or a stage's check refuses its change
+   * counts. Returns whether it committed. No statement runs after one that failed.
    *
-   * A stage holds one statement that matters and, after it, only statements harmless on their own
-   * (inserts of new chunks at places no reader sees): should SQLite abandon the transaction on a disk
-   * error, the statements after the failing one in the same stage would run outside it.
+   * In memory (tests), a stage's statements are queued at once on the single connection instead
+   * (serialize mode); there a stage holds one statement that matters and, after it, only statements
+   * harmless on their own (inserts of new chunks at places no reader sees).
    */
   private transact(stages: Stage[]): Promise<boolean> {
     const next = this.writeQueue.then(async () => {
-      const runStages = async (conn: SqliteDatabase): Promise<boolean> => {
-        for (const stage of stages) {
-          const changes = await pipeline(conn, stage.statements);
-          if (stage.check && !stage.check(changes)) return false;
-        }
-        return true;
-      };
       if (this.inMemory) {
+        const runStages = async (conn: SqliteDatabase): Promise<boolean> => {
+          for (const stage of stages) {
+            const changes = await pipeline(conn, stage.statements);
+            if (stage.check && !stage.check(changes)) return false;
+          }
+          return true;
+        };
         const refused = new Error('refused');
         try {
           await this.sequelize.transaction(async (transaction) => {
@@ -153,15 +167,23 @@ export class SqliteChunkStore implements ChunkStore {
         await run(conn, 'PRAGMA wal_autocheckpoint = 0');
         this.writerReady = true;
       }
-      await run(conn, 'BEGIN IMMEDIATE');
+      const runStages = async (): Promise<boolean> => {
+        for (const stage of stages) {
+          const changes: number[] = [];
+          for (const [sql, params] of stage.statements) changes.push(await this.prepared.run(conn, sql, params));
+          if (stage.check && !stage.check(changes)) return false;
+        }
+        return true;
+      };
+      await this.prepared.run(conn, 'BEGIN IMMEDIATE');
       let committed = false;
       try {
-        if (await runStages(conn)) {
-          await run(conn, 'COMMIT');
+        if (await runStages()) {
+          await this.prepared.run(conn, 'COMMIT');
           committed = true;
         }
       } finally {
-        if (!committed) await run(conn, 'ROLLBACK').catch(() => undefined);
+        if (!committed) await this.prepared.run(conn, 'ROLLBACK').catch(() => undefined);
       }
       if (committed) this.wrote(stages);
       return committed;
@@ -268,8 +290,7 @@ export class SqliteChunkStore implements ChunkStore {
   }
 
   async readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number): Promise<ChunkSummaryRow[]> {
-    return all<ChunkSummaryRow>(
-      await this.reader(),
+    return this.query<ChunkSummaryRow>(
       `SELECT "seq", ${quoted(SUMMARY_COLUMNS)} FROM trace_chunks
        WHERE "traceId" = ? AND "seq" < ? AND "lastUs" >= ? AND "firstUs" <= ? ORDER BY "seq"`,
       [traceId, chunkCount, fromUs, toUs],
@@ -277,16 +298,14 @@ export class SqliteChunkStore implements ChunkStore {
   }
 
   async readData(traceId: string, fromSeq: number, toSeq: number): Promise<ChunkData[]> {
-    return all<ChunkData>(
-      await this.reader(),
+    return this.query<ChunkData>(
       'SELECT "seq", "samples", "times" FROM trace_chunk_data WHERE "traceId" = ? AND "seq" >= ? AND "seq" <= ? ORDER BY "seq"',
       [traceId, fromSeq, toSeq],
     );
   }
 
   async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
-    return all(
-      await this.reader(),
+    return this.query<ChunkEnvelope>(
       `SELECT "seq", "envelope", ${withTimes ? '"times"' : 'NULL AS "times"'} FROM trace_chunk_data
        WHERE "traceId" = ? AND "seq" >= ? AND "seq" <= ? ORDER BY "seq"`,
       [traceId, fromSeq, toSeq],

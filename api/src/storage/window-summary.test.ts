@@ -40,9 +40,9 @@ function makeSeries(n: number, seed: number) {
 }
 
 describe.each([
-  ['sqlite', (db: Db) => new SqliteChunkStore(db.sequelize)],
+  ['sqlite', (db: Db) => new SqliteChunkStore(db)],
   ['sequelize', (db: Db) => new SequelizeChunkStore(db)],
-  ['cached sqlite', (db: Db) => new CachedChunkStore(new SqliteChunkStore(db.sequelize))],
+  ['cached sqlite', (db: Db) => new CachedChunkStore(new SqliteChunkStore(db))],
 ] as const)('window statistics from chunk summaries (%s store)', (_name, makeStore) => {
   let db: Db;
   let store: ChunkStore;
