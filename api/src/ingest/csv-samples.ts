@@ -17,6 +17,7 @@
  */
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { MAX_LISTED_ERRORS, badParameter, invalidSamples, malformedAt } from './body-errors.js';
+import { parseDecimalText } from './decimal-text.js';
 import { LineSplitter, splitBody } from './line-splitter.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
@@ -55,12 +56,10 @@ export interface CsvResult {
 const PUSH_SAMPLES = 1 << 16;
 const TIME_NAMES = /^(time|timestamp|datetime|date_time|date-time|ts|t|epoch|time_ms|time_s|time \(.*\)|timestamp \(.*\))$/i;
 const CURRENT_NAMES = /^(a|i|amps?|ampere|current|value|reading|irms|i_rms|rms|current_a|current \(.*\)|i \(.*\)|amps \(.*\)|reading_.*)$/i;
-const DECIMAL = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$/;
 
 /** Parses a decimal reading (point or comma); NaN when it is not one (hex, words and blanks included). */
 export function parseDecimal(text: string, decimalComma: boolean): number {
-  const t = decimalComma ? text.replace(',', '.') : text;
-  return DECIMAL.test(t) ? Number(t) : Number.NaN;
+  return parseDecimalText((decimalComma ? text.replace(',', '.') : text).trim());
 }
 
 /** Unit named in a column header: `current (mA)`, `I_A`, `reading [mV]`, or null. */
@@ -76,6 +75,36 @@ function unitFactor(unit: ReadingUnit, probeUnit: ReadingUnit, parameter: string
   if (unit === 'mA' && probeUnit === 'A') return 0.001;
   if (unit === 'A' && probeUnit === 'mA') return 1000;
   throw badParameter(parameter, `the readings are in ${unit} but the trace's probe reads ${probeUnit}; set the probe to match the file`);
+}
+
+/**
+ * Field `index` of a line without quotes, or undefined when the line has fewer fields. Reading only the
+ * fields needed, without splitting the whole line, keeps the per-row cost of large bodies low.
+ */
+function unquotedField(line: string, delimiter: string, index: number): string | undefined {
+  let start = 0;
+  for (let k = 0; k < index; k++) {
+    const d = line.indexOf(delimiter, start);
+    if (d < 0) return undefined;
+    start = d + 1;
+  }
+  const end = line.indexOf(delimiter, start);
+  return line.slice(start, end < 0 ? line.length : end);
+}
+
+/** Field `index` of a row: from its split fields when it had quotes, else read from the line. */
+function fieldOf(line: string, quoted: string[] | null, delimiter: string, index: number): string | undefined {
+  return quoted ? quoted[index] : unquotedField(line, delimiter, index);
+}
+
+/** All fields of a row (for error messages). */
+function fieldsOf(line: string, quoted: string[] | null, delimiter: string): string[] {
+  return quoted ?? splitCsvLine(line, delimiter) ?? [];
+}
+
+/** 1-based column where field `index` starts. */
+function columnOf(fields: string[], index: number): number {
+  return fields.slice(0, index).reduce((n, f) => n + f.length + 1, 1);
 }
 
 /** Splits one CSV line into fields (RFC 4180 quoting within a line). */
@@ -192,7 +221,6 @@ export async function readCsvSamples(chunks: AsyncIterable<Buffer>, options: Csv
   let skipped = 0;
   let pushedUniform = 0;
 
-  const columnOf = (fields: string[], index: number): number => fields.slice(0, index).reduce((n, f) => n + f.length + 1, 1);
   const addError = (error: ProblemFieldError) => {
     errors.push(error);
     if (errors.length >= MAX_LISTED_ERRORS) throw invalidSamples(errors, errors.length);
@@ -213,14 +241,16 @@ export async function readCsvSamples(chunks: AsyncIterable<Buffer>, options: Csv
       return;
     }
     if (text.trim() === '') return;
-    const fields = splitCsvLine(text, delimiter);
-    if (!fields) return addError({ detail: 'unbalanced quotes', line, column: 1 });
+    // Rows without quotes (nearly all) are read field by field; others are split whole.
+    const quoted = text.includes('"') ? splitCsvLine(text, delimiter) : null;
+    if (quoted === null && text.includes('"')) return addError({ detail: 'unbalanced quotes', line, column: 1 });
+    // (No closures here: this runs once per row, and each closure made costs more than the row's work.)
     const needed = Math.max(layout.time, layout.date, layout.value);
-    if (fields.length <= needed) {
-      return addError({ detail: `expected at least ${needed + 1} fields separated by "${delimiter === '\t' ? 'tab' : delimiter}", found ${fields.length}`, line, column: 1 });
+    if (fieldOf(text, quoted, delimiter, needed) === undefined) {
+      return addError({ detail: `expected at least ${needed + 1} fields separated by "${delimiter === '\t' ? 'tab' : delimiter}", found ${fieldsOf(text, quoted, delimiter).length}`, line, column: 1 });
     }
-    const rawValue = (fields[layout.value] as string).trim();
-    if (missing.has(rawValue)) {
+    const rawValue = (fieldOf(text, quoted, delimiter, layout.value) as string).trim();
+    if (missing.size > 0 && missing.has(rawValue)) {
       skipped++;
       return;
     }
@@ -229,24 +259,25 @@ export async function readCsvSamples(chunks: AsyncIterable<Buffer>, options: Csv
       decimalKnown = true;
     }
     const reading = parseDecimal(rawValue, decimalComma);
-    if (rawValue === '') return addError({ detail: `empty reading in column "${header[layout.value]}" (use missing= to skip such rows)`, line, column: columnOf(fields, layout.value) });
+    if (rawValue === '') return addError({ detail: `empty reading in column "${header[layout.value]}" (use missing= to skip such rows)`, line, column: columnOf(fieldsOf(text, quoted, delimiter), layout.value) });
     if (Number.isNaN(reading)) {
       const hint = /^(nan|inf|-inf|infinity|-infinity)$/i.test(rawValue) ? `${rawValue} is not a reading` : `"${rawValue}" is not a number${decimalComma ? ' (decimal comma)' : ''}`;
-      return addError({ detail: hint, line, column: columnOf(fields, layout.value) });
+      return addError({ detail: hint, line, column: columnOf(fieldsOf(text, quoted, delimiter), layout.value) });
     }
     const problem = readingProblem(reading * factor);
-    if (problem) return addError({ detail: `the reading is ${problem}`, line, column: columnOf(fields, layout.value) });
+    if (problem) return addError({ detail: `the reading is ${problem}`, line, column: columnOf(fieldsOf(text, quoted, delimiter), layout.value) });
     if (layout.time >= 0) {
-      const timeText = layout.date >= 0 ? `${(fields[layout.date] as string).trim()} ${(fields[layout.time] as string).trim()}` : (fields[layout.time] as string);
+      const timeText = layout.date >= 0 ? `${(fieldOf(text, quoted, delimiter, layout.date) as string).trim()} ${(fieldOf(text, quoted, delimiter, layout.time) as string).trim()}`
+          : (fieldOf(text, quoted, delimiter, layout.time) as string);
       let us: number;
       try {
         us = options.timestamps.fromText(timeText);
       } catch (err) {
-        if (err instanceof TimestampError) return addError({ detail: err.message, line, column: columnOf(fields, layout.date >= 0 ? layout.date : layout.time) });
+        if (err instanceof TimestampError) return addError({ detail: err.message, line, column: columnOf(fieldsOf(text, quoted, delimiter), layout.date >= 0 ? layout.date : layout.time) });
         throw err;
       }
       if (!(us > lastUs)) {
-        return addError({ detail: `the time is not after the previous row's (line ${lastLine}); rows must be in time order without repeats`, line, column: columnOf(fields, layout.time) });
+        return addError({ detail: `the time is not after the previous row's (line ${lastLine}); rows must be in time order without repeats`, line, column: columnOf(fieldsOf(text, quoted, delimiter), layout.time) });
       }
       lastUs = us;
       lastLine = line;

@@ -2,23 +2,10 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { Problem } from '../errors/problem.js';
 import { parseJsonNumber, readJsonSamples } from './json-samples.js';
-import type { SampleSink } from './sample-sink.js';
+import { collectingSink } from './test-support.js';
 import { TimestampReader } from './timestamps.js';
 
-function collect(): SampleSink & { values: number[]; times: number[] } {
-  const sink = {
-    values: [] as number[],
-    times: [] as number[],
-    async pushExplicit(v: Float32Array, t: Float64Array) {
-      sink.values.push(...v);
-      sink.times.push(...t);
-    },
-    async pushUniform(v: Float32Array) {
-      sink.values.push(...v);
-    },
-  };
-  return sink;
-}
+const collect = collectingSink;
 
 async function* pieces(text: string, size: number) {
   const buf = Buffer.from(text);

@@ -7,10 +7,54 @@ import type { ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
 import { LineSplitter, splitBody } from './line-splitter.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink } from './sample-sink.js';
+import { isJsonNumberText, parseDecimalText } from './decimal-text.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 /** Samples gathered before they are handed to the writer. */
 const PUSH_SAMPLES = 1 << 16;
+
+/** Where `plainRecord` puts what it read (one reader per body, so no object per line). */
+interface PlainRecord {
+  t: number;
+  a: number;
+}
+
+function skipSpaces(text: string, i: number): number {
+  let c = text.charCodeAt(i);
+  while (c === 32 || c === 9) c = text.charCodeAt(++i);
+  return i;
+}
+
+/**
+ * Reads the usual line, `{"t": <number>, "a": <number>}` (either order, spaces allowed), without
+ * JSON.parse and the object it makes; false for anything else (a string timestamp, another member, a
+ * malformed line), which then goes through JSON.parse and its checks and messages.
+ */
+function plainRecord(text: string, out: PlainRecord): boolean {
+  let i = skipSpaces(text, 0);
+  if (text.charCodeAt(i) !== 123) return false; // {
+  let seen = 0;
+  for (let member = 0; member < 2; member++) {
+    i = skipSpaces(text, i + 1);
+    const key = text.charCodeAt(i + 1);
+    if (text.charCodeAt(i) !== 34 || text.charCodeAt(i + 2) !== 34 || (key !== 116 && key !== 97)) return false; // "t" or "a"
+    const bit = key === 116 ? 1 : 2;
+    if (seen & bit) return false;
+    seen |= bit;
+    i = skipSpaces(text, i + 3);
+    if (text.charCodeAt(i) !== 58) return false; // :
+    const start = skipSpaces(text, i + 1);
+    let end = start;
+    for (let c = text.charCodeAt(end); (c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46 || c === 101 || c === 69; c = text.charCodeAt(++end));
+    if (!isJsonNumberText(text, start, end)) return false;
+    const value = parseDecimalText(text.slice(start, end));
+    if (bit === 1) out.t = value;
+    else out.a = value;
+    i = skipSpaces(text, end);
+    if (text.charCodeAt(i) !== (member === 0 ? 44 : 125)) return false; // , then }
+  }
+  return skipSpaces(text, i + 1) === text.length;
+}
 
 /** Column (1-based) of a JSON.parse error, from the position in its message when there is one. */
 function jsonErrorColumn(message: string, text: string): number {
@@ -27,7 +71,26 @@ export async function readNdjsonSamples(chunks: AsyncIterable<Buffer>, timestamp
     throw invalidSamples(errors);
   };
 
+  /** Checks a line's reading and time and keeps them. */
+  const accept = (t: number | string, a: number, line: number): void => {
+    const problem = readingProblem(a);
+    if (problem) fail([{ detail: `a is ${problem}`, line }]);
+    let us: number;
+    try {
+      us = typeof t === 'number' ? timestamps.fromNumber(t) : timestamps.fromText(t);
+    } catch (err) {
+      if (err instanceof TimestampError) return fail([{ detail: `t: ${err.message}`, line }]);
+      throw err;
+    }
+    if (!(us > lastUs)) fail([{ detail: 'timestamps must increase: t is not after the previous line\'s', line }]);
+    lastUs = us;
+    times.push(us);
+    values.push(a);
+  };
+
+  const plain: PlainRecord = { t: 0, a: 0 };
   const splitter = new LineSplitter((text, line) => {
+    if (plainRecord(text, plain)) return accept(plain.t, plain.a, line);
     if (text.trim() === '') return;
     let record: unknown;
     try {
@@ -45,19 +108,7 @@ export async function readNdjsonSamples(chunks: AsyncIterable<Buffer>, timestamp
     }
     if (typeof t !== 'number' && typeof t !== 'string') fail([{ detail: 't must be a timestamp (number or string)', line }]);
     if (typeof a !== 'number') fail([{ detail: a === undefined ? 'a is missing' : 'a must be a number', line }]);
-    const problem = readingProblem(a as number);
-    if (problem) fail([{ detail: `a is ${problem}`, line }]);
-    let us: number;
-    try {
-      us = typeof t === 'number' ? timestamps.fromNumber(t) : timestamps.fromText(t as string);
-    } catch (err) {
-      if (err instanceof TimestampError) return fail([{ detail: `t: ${err.message}`, line }]);
-      throw err;
-    }
-    if (!(us > lastUs)) fail([{ detail: 'timestamps must increase: t is not after the previous line\'s', line }]);
-    lastUs = us;
-    times.push(us);
-    values.push(a as number);
+    accept(t as number | string, a as number, line);
   });
 
   const flush = async () => {

@@ -12,6 +12,8 @@
  * Every timestamp of a batch must have the format of the first: a change is a "mixed formats" error.
  */
 
+import { parseDecimalText } from './decimal-text.js';
+
 export const TIME_FORMATS = ['epoch-ms', 'epoch-s', 'seconds', 'iso', 'd/m/y', 'm/d/y', 'y/m/d'] as const;
 export type TimeFormat = (typeof TIME_FORMATS)[number];
 
@@ -138,7 +140,7 @@ export class TimestampReader {
     const text = raw.trim();
     if (text === '') throw new TimestampError('the timestamp is empty');
     if (this.format === undefined || this.format === 'epoch-ms' || this.format === 'epoch-s' || this.format === 'seconds') {
-      const n = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(text) ? Number(text) : Number.NaN;
+      const n = parseDecimalText(text);
       if (!Number.isNaN(n)) return this.fromNumber(n);
       if (this.format !== undefined) {
         if (this.fixed) throw new TimestampError(`expected ${describe(this.format)}, got "${raw}"`);
