@@ -1,8 +1,7 @@
-import { QueryClientProvider } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
-import { createQueryClient } from '../lib/query-client';
+import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
+import type { ReactNode } from 'react';
 
-export function AppProvider({ children }: { children: ReactNode }) {
-  const [client] = useState(() => createQueryClient());
+/** The page's one query client, created in main.tsx (the router's loaders prefetch into it too). */
+export function AppProvider({ client, children }: { client: QueryClient; children: ReactNode }) {
   return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
 }
