@@ -17,16 +17,29 @@ import {
   ScatterController,
   TimeScale,
   Tooltip,
+  type ChartType,
   type Plugin,
 } from 'chart.js';
 import 'chartjs-adapter-date-fns';
 import annotationPlugin from 'chartjs-plugin-annotation';
 import zoomPlugin from 'chartjs-plugin-zoom';
 
-/** Sets `data-drawn="true"` and a performance mark on the canvas once a chart with points is painted. */
+declare module 'chart.js' {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- the type parameter must match Chart.js's declaration
+  interface PluginOptionsByType<TType extends ChartType> {
+    /** `waiting: true` while the chart frame is drawn before its data has arrived (no mark yet). */
+    headroomDrawnMarker?: { waiting?: boolean };
+  }
+}
+
+/**
+ * Sets `data-drawn="true"` and a performance mark on the canvas once a chart with points is painted;
+ * never for a frame drawn while the data is still on its way.
+ */
 const drawnMarker: Plugin = {
   id: 'headroomDrawnMarker',
-  afterRender(chart) {
+  afterRender(chart, _args, options: { waiting?: boolean }) {
+    if (options.waiting) return;
     const hasPoints = chart.data.datasets.some((d) => d.data.length > 0);
     const canvas = chart.canvas;
     if (!hasPoints || canvas.dataset.drawn === 'true') return;

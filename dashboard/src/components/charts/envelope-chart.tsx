@@ -5,6 +5,7 @@ import type { AnnotationOptions } from 'chartjs-plugin-annotation';
 import { chartColours, clockDisplayFormats } from '../../lib/charts';
 import { formatClockMs, formatValue, timeZoneLabel } from '../../lib/format';
 import { Button } from '../ui/button';
+import { LoadingState } from '../ui/states';
 import { envelopePoints, stepWindow, type EnvelopeSeries, type TimeWindow, type XYPoint } from './envelope';
 
 /** An inrush or surge drawn on the chart: a marker at its peak and a shaded span over its duration. */
@@ -46,6 +47,11 @@ export interface EnvelopeChartProps {
   signed?: boolean;
   yLabel?: string;
   busy?: boolean;
+  /**
+   * The envelope is still on its way: the frame (axes, limits, events) is drawn already, so Chart.js has
+   * set itself up by the time the data arrives; the drawn mark waits for the data.
+   */
+  waiting?: boolean;
   height?: number;
 }
 
@@ -68,6 +74,7 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
     selectedEventId,
     onEventSelect,
     signed = false,
+    waiting = false,
   } = props;
   const settleTimer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   const onWindowChangeRef = useRef(onWindowChange);
@@ -209,6 +216,7 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
           },
         },
         annotation: { annotations },
+        headroomDrawnMarker: { waiting },
         zoom: {
           limits: { x: { min: bounds.from, max: bounds.to, minRange: 20 } },
           pan: { enabled: true, mode: 'x', modifierKey: 'shift', onPanComplete: ({ chart }) => reportWindow(chart) },
@@ -242,7 +250,19 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
         WINDOW_SETTLE_MS,
       );
     }
-  }, [visible.from, visible.to, bounds.from, bounds.to, zone, limits, events, selectedEventId, signed, props.yLabel]);
+  }, [
+    visible.from,
+    visible.to,
+    bounds.from,
+    bounds.to,
+    zone,
+    limits,
+    events,
+    selectedEventId,
+    signed,
+    props.yLabel,
+    waiting,
+  ]);
 
   const step = (action: { zoom?: number; pan?: number }) => onWindowChange(stepWindow(visible, bounds, action));
   const zoomed = win !== null && (win.from > bounds.from || win.to < bounds.to);
@@ -255,7 +275,7 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
           event
         </p>
         <div className="flex items-center gap-1" role="toolbar" aria-label="Chart zoom">
-          {props.busy ? (
+          {props.busy && !waiting ? (
             <span role="status" className="mr-2 text-xs text-ink-500">
               Refining…
             </span>
@@ -289,6 +309,11 @@ export function EnvelopeChart(props: EnvelopeChartProps) {
             <p>Chart of current over time. The figures and the event table below give the same information.</p>
           }
         />
+        {waiting ? (
+          <div className="absolute inset-0 flex items-center justify-center">
+            <LoadingState label="Loading the chart…" />
+          </div>
+        ) : null}
       </div>
       <Legend hasEvents={events.length > 0} limits={limits} />
     </div>

@@ -1,7 +1,7 @@
 import { useMemo, useState } from 'react';
 import { EnvelopeChart, type ChartEvent, type ChartLimit } from '../../../components/charts/envelope-chart';
-import type { TimeWindow } from '../../../components/charts/envelope';
-import { EmptyState, ErrorState, LoadingState } from '../../../components/ui/states';
+import type { EnvelopeSeries, TimeWindow } from '../../../components/charts/envelope';
+import { EmptyState, ErrorState } from '../../../components/ui/states';
 import type { UseQueryResult } from '@tanstack/react-query';
 import type { TraceSeries } from '../api/trace-data';
 import type { Trace } from '../api/traces';
@@ -9,6 +9,9 @@ import type { TraceEventRow } from './events-table';
 import { envelopeOf, type EnvelopeMode } from '../utils/envelope-of';
 
 type Mode = EnvelopeMode;
+
+/** Drawn while the envelope is on its way: the chart's frame without points. */
+const NO_ENVELOPE: EnvelopeSeries = { t: [], min: [], max: [], mean: [] };
 
 /**
  * The trace's chart: draws the envelope of the visible window (the page fetches a finer one after every
@@ -57,9 +60,10 @@ export function TraceChartPanel({
     [events],
   );
   const hasRms = Boolean(series.data?.rms);
-  const effectiveMode: Mode = mode === 'rms' && !hasRms ? 'instantaneous' : mode;
+  // Until the envelope arrives, the chosen mode stands (a closed waveform trace has its RMS series).
+  const effectiveMode: Mode = series.data && mode === 'rms' && !hasRms ? 'instantaneous' : mode;
   const envelope = useMemo(
-    () => (series.data ? envelopeOf(series.data, effectiveMode) : null),
+    () => (series.data ? envelopeOf(series.data, effectiveMode) : NO_ENVELOPE),
     [series.data, effectiveMode],
   );
 
@@ -67,12 +71,11 @@ export function TraceChartPanel({
     return (
       <EmptyState title="No samples yet">Samples appear here as soon as a device or an upload sends them.</EmptyState>
     );
-  if (series.isPending) return <LoadingState label="Loading the chart…" />;
   if (series.isError) return <ErrorState error={series.error} onRetry={() => void series.refetch()} />;
 
   return (
     <div className="space-y-2">
-      {trace.kind === 'waveform' ? (
+      {trace.kind === 'waveform' && series.data ? (
         <div className="flex items-center gap-2 text-sm" role="group" aria-label="Values shown">
           {(['rms', 'instantaneous'] as const).map((m) => (
             <button
@@ -91,7 +94,7 @@ export function TraceChartPanel({
       ) : null}
       <EnvelopeChart
         name="trace"
-        envelope={envelope!}
+        envelope={envelope}
         bounds={bounds}
         window={window}
         onWindowChange={onWindowChange}
@@ -102,11 +105,14 @@ export function TraceChartPanel({
         signed={effectiveMode === 'instantaneous' && trace.kind === 'waveform'}
         yLabel={effectiveMode === 'rms' && trace.kind === 'waveform' ? 'Current, half-cycle RMS (A)' : 'Current (A)'}
         busy={series.isFetching}
+        waiting={series.isPending}
       />
-      <p className="text-xs text-ink-500">
-        {series.data.sampleCount.toLocaleString()} samples in view, drawn as {series.data.t.length.toLocaleString()}{' '}
-        buckets, each with its minimum, maximum and mean, so no peak is lost between points.
-      </p>
+      {series.data ? (
+        <p className="text-xs text-ink-500">
+          {series.data.sampleCount.toLocaleString()} samples in view, drawn as {series.data.t.length.toLocaleString()}{' '}
+          buckets, each with its minimum, maximum and mean, so no peak is lost between points.
+        </p>
+      ) : null}
     </div>
   );
 }
