@@ -9,7 +9,7 @@ export default defineProject({
   test: {
     name: 'dashboard',
     root: fileURLToPath(new URL('.', import.meta.url)),
-    include: ['src/**/*.test.{ts,tsx}', 'e2e/**/*.e2e.test.ts'],
+    include: ['src/**/*.test.{ts,tsx}', 'build/**/*.test.ts', 'e2e/**/*.e2e.test.ts'],
     environment: 'jsdom',
     testTimeout: 60_000,
     hookTimeout: 180_000,

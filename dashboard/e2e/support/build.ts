@@ -26,6 +26,7 @@ function newestMtime(target: string): number {
 function sourcesMtime(): number {
   const inputs = [
     'src',
+    'build',
     'public',
     'index.html',
     'vite.config.ts',
