@@ -9,7 +9,12 @@ import type { Readable } from 'node:stream';
 import { Problem } from '../errors/problem.js';
 import { tooLarge } from './body-stream.js';
 
-export type FileHandler<T> = (fields: Record<string, unknown>, file: Readable) => Promise<T>;
+/**
+ * Handles the form's file. `formRead` settles once the whole form has been read: it rejects when the
+ * form goes on to fail (a second file), so a handler that waits for it before committing anything
+ * leaves nothing behind from a form answered with an error.
+ */
+export type FileHandler<T> = (fields: Record<string, unknown>, file: Readable, formRead: Promise<void>) => Promise<T>;
 
 const MULTER_PROBLEMS: Record<string, string> = {
   LIMIT_PART_COUNT: 'too many parts in the form',
@@ -28,9 +33,18 @@ export function readMultipartFile<T>(req: Request, res: Response, maxFileBytes: 
   }
   let handled: { result: T } | null = null;
   let fileError: unknown = null;
+  let files = 0;
+  // Settles when the body has ended and busboy has parsed its last bytes, or rejects at a second file.
+  let refuseForm: (err: Error) => void = () => undefined;
+  const formRead = new Promise<void>((resolve, reject) => {
+    refuseForm = reject;
+    req.once('end', () => setImmediate(resolve));
+    req.once('close', () => setImmediate(() => reject(new Problem('malformed-body', 'The upload ended before the form was complete'))));
+  });
+  formRead.catch(() => undefined); // settled for the handler; unhandled only when there is no file
   const storage: multer.StorageEngine = {
     _handleFile(request, file, callback) {
-      onFile({ ...(request.body as Record<string, unknown>) }, file.stream).then(
+      onFile({ ...(request.body as Record<string, unknown>) }, file.stream, formRead).then(
         (result) => {
           handled = { result };
           callback(null, {});
@@ -47,7 +61,16 @@ export function readMultipartFile<T>(req: Request, res: Response, maxFileBytes: 
       callback(null);
     },
   };
-  const upload = multer({ storage, limits: { files: 1, fileSize: maxFileBytes, fields: 60, fieldSize: 64 * 1024, parts: 70 } }).single('file');
+  // A second file (or one in another field) is refused here rather than by multer's limits, so the
+  // first file's handler hears of it before it commits.
+  const fileFilter: multer.Options['fileFilter'] = (_request, file, callback) => {
+    files += 1;
+    if (files === 1 && file.fieldname === 'file') return callback(null, true);
+    const err = new multer.MulterError(file.fieldname === 'file' ? 'LIMIT_FILE_COUNT' : 'LIMIT_UNEXPECTED_FILE', file.fieldname);
+    refuseForm(err);
+    callback(err);
+  };
+  const upload = multer({ storage, fileFilter, limits: { files: 2, fileSize: maxFileBytes, fields: 60, fieldSize: 64 * 1024, parts: 70 } }).any();
   return new Promise<T>((resolve, reject) => {
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {

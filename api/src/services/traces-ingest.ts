@@ -241,10 +241,21 @@ export function createTraceIngest(deps: IngestDeps) {
   }
 
   /** Fills `trace` from the body in one batch and commits it with its idempotency record. */
-  async function storeBatch(scope: Scope, trace: Trace, format: SampleFormat, body: AsyncIterable<Buffer>, options: SampleReadOptions, ctx: IdempotencyContext | null, status: number, respond: (r: AppendResult, batch: BatchResult) => unknown) {
+  async function storeBatch(
+    scope: Scope,
+    trace: Trace,
+    format: SampleFormat,
+    body: AsyncIterable<Buffer>,
+    options: SampleReadOptions,
+    ctx: IdempotencyContext | null,
+    status: number,
+    respond: (r: AppendResult, batch: BatchResult) => unknown,
+    beforeCommit?: Promise<void>,
+  ) {
     const writer = await writerFor(trace);
     try {
       const read = await readBody(format, body, trace, options, writer);
+      await beforeCommit;
       const fingerprint = ctx?.hash.digest('hex') ?? '';
       let answer: unknown;
       const batch = await writer.finish((result) => {
@@ -291,19 +302,32 @@ export function createTraceIngest(deps: IngestDeps) {
       });
     },
 
-    /** POST /traces/import: a CSV file creates and fills a new trace; nothing is kept when it fails. */
-    async importCsv(scope: Scope, input: TraceInput, options: SampleReadOptions, file: AsyncIterable<Buffer>, idempotencyKey: string | undefined) {
+    /**
+     * POST /traces/import: a CSV file creates and fills a new trace; nothing is kept when it fails.
+     * `formRead`: the rest of the upload; the samples are committed only once it has been read whole.
+     */
+    async importCsv(scope: Scope, input: TraceInput, options: SampleReadOptions, file: AsyncIterable<Buffer>, idempotencyKey: string | undefined, formRead?: Promise<void>) {
       const ctx = idempotencyContext(idempotencyKey, 'import-trace', `${JSON.stringify(input)}\n${describeOptions(options)}`);
       const body = limitedBody(file, limitBytes, ctx?.hash);
       const known = await replayOf(scope, ctx, body);
       if (known) return replayed(known);
       const trace = await deps.createTrace(scope, input);
       try {
-        const { answer } = await storeBatch(scope, trace, 'csv', body, options, ctx, 201, (r, batch) => {
-          // The answer shows the trace as the commit leaves it (the instance is not saved from here).
-          trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
-          return { trace: toTraceView(trace), import: r };
-        });
+        const { answer } = await storeBatch(
+          scope,
+          trace,
+          'csv',
+          body,
+          options,
+          ctx,
+          201,
+          (r, batch) => {
+            // The answer shows the trace as the commit leaves it (the instance is not saved from here).
+            trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
+            return { trace: toTraceView(trace), import: r };
+          },
+          formRead,
+        );
         return { status: 201, body: answer, replayed: false };
       } catch (err) {
         await trace.destroy();

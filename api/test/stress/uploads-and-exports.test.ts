@@ -96,14 +96,13 @@ describe('uploads', () => {
     expect(await stateDigest(t)).toEqual(before);
   });
 
-  // KNOWN BUG (reported to the trace-storage work): the first file is imported and committed as it
-  // streams in; the second file then fails the form with 400, but the trace from the first one stays.
-  // `it.fails` keeps the check running: when the import becomes all-or-nothing this test starts failing,
-  // and `.fails` must then be removed.
-  it.fails('when a form carries two files, then 400 and nothing is stored', async () => {
+  // The first file is read (and its chunks written as pending) before the second one shows up: the
+  // import waits for the whole form before it commits, so the second file leaves nothing behind.
+  it('when a form carries two files, then 400 and nothing is stored', async () => {
     const before = await stateDigest(t);
     const two = await request(t.app).post('/api/v1/traces/import').set(headers).field('name', 'Two files').attach('file', Buffer.from(CSV), 'a.csv').attach('file', Buffer.from(CSV), 'b.csv');
     expect(two.status, two.text).toBe(400);
+    expect(two.body.detail).toMatch(/exactly one file/);
     expect(await stateDigest(t)).toEqual(before);
   });
 });

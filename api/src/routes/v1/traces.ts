@@ -88,7 +88,7 @@ export const traceRoutes: RouteDefinition[] = [
       responses: { 201: { description: 'The new trace and how its file was read', schema: ImportResult } },
     },
     async ({ services, scope, config, req, res, headers }) => {
-      const result = await readMultipartFile(req, res, parseByteSize(config.sampleBodyLimit), async (fields, file) => {
+      const result = await readMultipartFile(req, res, parseByteSize(config.sampleBodyLimit), async (fields, file, formRead) => {
         const { name, kind, inputUnit, sensitivityPerA, loops, tags: tagList, ...rest } = parseRequestPart(ImportFields, fields, 'body');
         const { start, rate, valueType, timeFormat, utcOffset, delimiter, decimal, timeColumn, dateColumn, valueColumn, unit, missing, ...trace } = rest;
         return services.traces.importCsv(
@@ -97,6 +97,7 @@ export const traceRoutes: RouteDefinition[] = [
           { start, rate, valueType, timeFormat, utcOffset, delimiter, decimal, timeColumn, dateColumn, valueColumn, unit, missing },
           file,
           headers['idempotency-key'],
+          formRead,
         );
       });
       return answer(result);
