@@ -43,6 +43,9 @@ export function createApp(config: Config, db: Db, deps: AppDeps = {}): HeadroomA
   // Client addresses (rate limits, audit log) come from the socket unless TRUST_PROXY names the proxies.
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
+  // API answers are `Cache-Control: no-store`, so an ETag would never be used, yet Express hashes every
+  // body for one (a chart envelope is 60 KB). Static files keep theirs (serve-static sets its own).
+  app.set('etag', false);
   // More API requests at once than the server can work on are refused first of all, cheaply, with 503.
   app.use('/api/v1', loadShedding({ maxInFlight: config.maxConcurrentRequests, logger }));
   app.use(requestLogging(logger));

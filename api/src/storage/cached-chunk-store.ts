@@ -9,7 +9,7 @@
  * sampleCount go straight to the store.
  */
 import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, StoredChunk } from './chunk-store.js';
-import type { ChunkSummaryRow } from './summary-rows.js';
+import { compactRow, type ChunkSummaryRow } from './summary-rows.js';
 
 /** Most summary rows kept over all traces (about 0.5 KB each: 40 MB, some 800 million samples). */
 export const MAX_CACHED_ROWS = 80_000;
@@ -97,9 +97,9 @@ export class CachedChunkStore implements ChunkStore {
       // Rows before the old last chunk cannot have changed; read that one and everything after it.
       const keep = entry.rows.slice(0, entry.chunkCount - 1);
       const from = (entry.rows[entry.chunkCount - 1] as ChunkSummaryRow).firstUs;
-      rows = keep.concat(await this.store.readSummaries(traceId, chunkCount, from, Number.POSITIVE_INFINITY));
+      rows = keep.concat((await this.store.readSummaries(traceId, chunkCount, from, Number.POSITIVE_INFINITY)).map(compactRow));
     } else {
-      rows = await this.store.readSummaries(traceId, chunkCount, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY);
+      rows = (await this.store.readSummaries(traceId, chunkCount, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY)).map(compactRow);
     }
     this.forget(traceId);
     if (rows.length === chunkCount && rows.length <= MAX_CACHED_ROWS / 4) {
