@@ -7,12 +7,31 @@
  * sampleCount) are exactly the stored rows while the trace has those counts; when they differ, the
  * rows from the old last chunk on are read again (whatever process wrote them). Reads that give no
  * sampleCount go straight to the store.
+ *
+ * Envelope blobs (chart envelopes of zoomed windows) are kept too, for chunks before the trace's last
+ * one as the cached rows know it: those never change. The first envelope read of a trace reads all of
+ * them when they are few enough, so any later window of that trace is served from memory.
  */
 import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, StoredChunk } from './chunk-store.js';
 import { compactRow, type ChunkSummaryRow } from './summary-rows.js';
 
 /** Most summary rows kept over all traces (about 0.5 KB each: 40 MB, some 800 million samples). */
 export const MAX_CACHED_ROWS = 80_000;
+
+/** Envelope (and times) blobs kept over all traces, in bytes. */
+export const MAX_CACHED_ENVELOPE_BYTES = 64 * 1024 * 1024;
+/** A trace's envelopes are read whole (and kept) only up to this size. */
+const MAX_TRACE_ENVELOPE_BYTES = 16 * 1024 * 1024;
+/** Bytes of envelope and times per chunk, about (4,096 samples: 768 B of envelope, times up to 12 KB). */
+const ENVELOPE_BYTES_PER_CHUNK = 768;
+
+interface EnvelopeEntry {
+  /** Seqs [0, stableCount) are held, each with its times blob when `withTimes`. */
+  stableCount: number;
+  withTimes: boolean;
+  bySeq: ChunkEnvelope[];
+  bytes: number;
+}
 
 interface Entry {
   chunkCount: number;
@@ -47,6 +66,8 @@ function windowOf(rows: ChunkSummaryRow[], fromUs: number, toUs: number): ChunkS
 export class CachedChunkStore implements ChunkStore {
   private readonly entries = new Map<string, Entry>();
   private cachedRows = 0;
+  private readonly envelopes = new Map<string, EnvelopeEntry>();
+  private envelopeBytes = 0;
 
   constructor(private readonly store: ChunkStore) {}
 
@@ -66,8 +87,57 @@ export class CachedChunkStore implements ChunkStore {
     return this.store.readData(traceId, fromSeq, toSeq);
   }
 
-  readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
-    return this.store.readEnvelopes(traceId, fromSeq, toSeq, withTimes);
+  async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
+    // Chunks before the last one the cached rows know of never change.
+    const stableCount = Math.max(0, (this.entries.get(traceId)?.chunkCount ?? 0) - 1);
+    let held = this.envelopes.get(traceId);
+    if (held && withTimes && !held.withTimes) {
+      this.forgetEnvelopes(traceId);
+      held = undefined;
+    }
+    if (held && held.stableCount < Math.min(stableCount, toSeq + 1)) held = await this.extendEnvelopes(traceId, held, stableCount);
+    if (!held && stableCount > 0 && toSeq < stableCount + 1 && stableCount * ENVELOPE_BYTES_PER_CHUNK <= MAX_TRACE_ENVELOPE_BYTES) {
+      held = await this.holdEnvelopes(traceId, stableCount, withTimes);
+    }
+    if (!held) return this.store.readEnvelopes(traceId, fromSeq, toSeq, withTimes);
+    const out = held.bySeq.slice(fromSeq, Math.min(toSeq + 1, held.stableCount));
+    if (toSeq >= held.stableCount) out.push(...(await this.store.readEnvelopes(traceId, Math.max(fromSeq, held.stableCount), toSeq, withTimes)));
+    this.envelopes.delete(traceId); // most recently used last
+    this.envelopes.set(traceId, held);
+    return out;
+  }
+
+  /** Reads and keeps the envelopes of seqs [0, stableCount) of a trace, when they fit. */
+  private async holdEnvelopes(traceId: string, stableCount: number, withTimes: boolean): Promise<EnvelopeEntry | undefined> {
+    const bySeq = await this.store.readEnvelopes(traceId, 0, stableCount - 1, withTimes);
+    if (bySeq.length !== stableCount || bySeq.some((e, k) => e.seq !== k)) return undefined;
+    const bytes = bySeq.reduce((n, e) => n + e.envelope.length + (e.times?.length ?? 0), 0);
+    if (bytes > MAX_TRACE_ENVELOPE_BYTES) return undefined;
+    while (this.envelopeBytes + bytes > MAX_CACHED_ENVELOPE_BYTES && this.envelopes.size > 0) this.forgetEnvelopes(this.envelopes.keys().next().value as string);
+    const entry = { stableCount, withTimes, bySeq, bytes };
+    this.envelopes.set(traceId, entry);
+    this.envelopeBytes += bytes;
+    return entry;
+  }
+
+  /** Adds the chunks that have become stable since (the trace grew); forgets the trace's entry when they do not fit. */
+  private async extendEnvelopes(traceId: string, held: EnvelopeEntry, stableCount: number): Promise<EnvelopeEntry | undefined> {
+    const more = await this.store.readEnvelopes(traceId, held.stableCount, stableCount - 1, held.withTimes);
+    const bytes = more.reduce((n, e) => n + e.envelope.length + (e.times?.length ?? 0), 0);
+    this.forgetEnvelopes(traceId);
+    if (more.some((e, k) => e.seq !== held.stableCount + k) || held.bytes + bytes > MAX_TRACE_ENVELOPE_BYTES) return undefined;
+    const entry = { stableCount: held.stableCount + more.length, withTimes: held.withTimes, bySeq: held.bySeq.concat(more), bytes: held.bytes + bytes };
+    while (this.envelopeBytes + entry.bytes > MAX_CACHED_ENVELOPE_BYTES && this.envelopes.size > 0) this.forgetEnvelopes(this.envelopes.keys().next().value as string);
+    this.envelopes.set(traceId, entry);
+    this.envelopeBytes += entry.bytes;
+    return entry;
+  }
+
+  private forgetEnvelopes(traceId: string): void {
+    const entry = this.envelopes.get(traceId);
+    if (!entry) return;
+    this.envelopeBytes -= entry.bytes;
+    this.envelopes.delete(traceId);
   }
 
   /**
