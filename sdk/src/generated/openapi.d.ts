@@ -1180,7 +1180,8 @@ export interface components {
             firstSampleTime: number | null;
             /** @description Time of the last stored sample, epoch ms */
             lastSampleTime: number | null;
-            summary: components["schemas"]["TraceStatistics"];
+            /** @description Statistics of every stored sample, kept current on each append (no percentiles); null while empty */
+            summary: components["schemas"]["TraceStatistics"] | null;
             /**
              * @description ISO 8601 date-time
              * @example 2026-11-30T09:15:00.000Z
@@ -1214,10 +1215,66 @@ export interface components {
              */
             loops: number;
         };
-        /** @description Statistics of every stored sample, kept current on each append (no percentiles) */
+        /** @description Statistics in amperes (see README "What Headroom computes"): count, min/max with their time (`minAt`, `maxAt`, epoch ms), mean, RMS, standard deviation, time-weighted mean, thermal-equivalent current, p50/p95/p99 (null when assembled from summaries), charge, energy, gaps. */
         TraceStatistics: {
-            [key: string]: unknown;
-        } | null;
+            count: number;
+            /** @description First sample, epoch ms */
+            firstAt: number;
+            /** @description Last sample, epoch ms */
+            lastAt: number;
+            durationS: number;
+            /** @description Time covered by samples, gaps excluded */
+            coveredTimeS: number;
+            minA: number;
+            /** @description Time of the minimum, epoch ms */
+            minAt: number;
+            maxA: number;
+            /** @description Time of the maximum, epoch ms */
+            maxAt: number;
+            meanA: number;
+            rmsA: number;
+            standardDeviationA: number;
+            timeWeightedMeanA: number | null;
+            /** @description RMS over time: the steady current that heats a conductor as much */
+            thermalEquivalentA: number | null;
+            p50A: number | null;
+            p95A: number | null;
+            p99A: number | null;
+            /** @description How the percentiles were computed, or why they are null */
+            quantileMethod: string;
+            chargeAh: number;
+            /** @description Null without a nominal voltage */
+            energyKWh: number | null;
+            voltageV: number | null;
+            powerFactor: number;
+            onThresholdA: number | null;
+            dutyCycle: number | null;
+            timeAbove: {
+                thresholdA: number;
+                timeS: number;
+                share: number | null;
+            }[];
+            gaps: {
+                thresholdS: number | null;
+                count: number;
+                totalS: number;
+                longest: {
+                    /** @description Start, epoch ms */
+                    startAt: number;
+                    /** @description End, epoch ms */
+                    endAt: number;
+                    durationS: number;
+                } | null;
+                listed: {
+                    /** @description Start, epoch ms */
+                    startAt: number;
+                    /** @description End, epoch ms */
+                    endAt: number;
+                    durationS: number;
+                }[];
+                listTruncated: boolean;
+            };
+        };
         TraceCreate: {
             /** @example Dough mixer, Tuesday batch */
             name: string;
@@ -1341,10 +1398,59 @@ export interface components {
         };
         TraceClosed: {
             trace: components["schemas"]["Trace"];
-            /** @description As POST /analyze answers: statistics, inrush events, surges, parameters */
-            analysis: {
+            analysis: components["schemas"]["AnalyzeResponse"];
+        };
+        /** @description As POST /analyze answers: statistics, inrush events, surges, parameters */
+        AnalyzeResponse: {
+            /** @enum {string} */
+            kind: "rms" | "waveform";
+            sampleCount: number;
+            /** @description Time of the first sample, epoch ms */
+            firstAt: number;
+            /** @description Time of the last sample, epoch ms */
+            lastAt: number;
+            rmsSeriesLength: number;
+            rmsSeriesMethod: string | null;
+            /** @description Peak, RMS, DC, crest and form factor of a waveform; null for rms traces */
+            waveform: {
+                [key: string]: unknown;
+            } | null;
+            statistics: components["schemas"]["TraceStatistics"] & unknown;
+            inrushEvents: components["schemas"]["InrushEvent"][];
+            surges: components["schemas"]["Surge"][];
+            onPeriodCount: number;
+            /** @description Every parameter used, defaults included */
+            params: {
                 [key: string]: unknown;
             };
+        };
+        InrushEvent: {
+            /** @description Switch-on time, epoch ms */
+            onsetAt: number;
+            peakA: number;
+            /** @description Time of the peak, epoch ms */
+            peakAt: number;
+            timeToPeakS: number;
+            steadyA: number;
+            peakToSteadyRatio: number | null;
+            settled: boolean;
+            settleTimeS: number | null;
+            durationS: number;
+            i2tA2s: number;
+        } & {
+            [key: string]: unknown;
+        };
+        Surge: {
+            /** @description epoch ms */
+            startAt: number;
+            /** @description epoch ms */
+            endAt: number;
+            durationS: number;
+            peakA: number;
+            runningA: number;
+            i2tA2s: number;
+        } & {
+            [key: string]: unknown;
         };
         TraceStats: {
             /**
@@ -1359,7 +1465,8 @@ export interface components {
              * @enum {string}
              */
             source: "summaries" | "samples" | "analysis";
-            statistics: components["schemas"]["TraceStatistics"] & unknown;
+            /** @description Null when the window holds no sample */
+            statistics: components["schemas"]["TraceStatistics"] | null;
         };
         TraceSeries: {
             /**
@@ -1406,13 +1513,9 @@ export interface components {
              * @enum {string}
              */
             source: "stored" | "computed";
-            /** @description Start-ups: onsetAt, peakA, peakAt, steadyA, peakToSteadyRatio, settleTimeS, i2tA2s… (times epoch ms) */
-            inrushEvents: {
-                [key: string]: unknown;
-            }[];
-            surges: {
-                [key: string]: unknown;
-            }[];
+            /** @description Start-ups (times epoch ms) */
+            inrushEvents: components["schemas"]["InrushEvent"][];
+            surges: components["schemas"]["Surge"][];
             onPeriodCount: number;
             params: {
                 [key: string]: unknown;
@@ -1667,60 +1770,6 @@ export interface components {
             to: string;
             /** @description A note placed above the summary in the e-mail */
             message?: string;
-        };
-        AnalyzeResponse: {
-            /** @enum {string} */
-            kind: "rms" | "waveform";
-            sampleCount: number;
-            /** @description Time of the first sample, epoch ms */
-            firstAt: number;
-            /** @description Time of the last sample, epoch ms */
-            lastAt: number;
-            rmsSeriesLength: number;
-            rmsSeriesMethod: string | null;
-            /** @description Peak, RMS, DC, crest and form factor of a waveform; null for rms traces */
-            waveform: {
-                [key: string]: unknown;
-            } | null;
-            /** @description Statistics of the RMS series (see README "What Headroom computes") */
-            statistics: {
-                [key: string]: unknown;
-            };
-            inrushEvents: components["schemas"]["InrushEvent"][];
-            surges: components["schemas"]["Surge"][];
-            onPeriodCount: number;
-            /** @description Every parameter used, defaults included */
-            params: {
-                [key: string]: unknown;
-            };
-        };
-        InrushEvent: {
-            /** @description Switch-on time, epoch ms */
-            onsetAt: number;
-            peakA: number;
-            /** @description Time of the peak, epoch ms */
-            peakAt: number;
-            timeToPeakS: number;
-            steadyA: number;
-            peakToSteadyRatio: number | null;
-            settled: boolean;
-            settleTimeS: number | null;
-            durationS: number;
-            i2tA2s: number;
-        } & {
-            [key: string]: unknown;
-        };
-        Surge: {
-            /** @description epoch ms */
-            startAt: number;
-            /** @description epoch ms */
-            endAt: number;
-            durationS: number;
-            peakA: number;
-            runningA: number;
-            i2tA2s: number;
-        } & {
-            [key: string]: unknown;
         };
         AnalyzeRequest: {
             /**

@@ -1,6 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CloseResponse, EventsResponse, SeriesResponse, StatsResponse } from './schemas/traces.js';
+import { Statistics } from './schemas/statistics.js';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 
 const T0 = 1_700_000_000_000;
@@ -153,6 +155,15 @@ describe('/api/v1/traces', () => {
       expect(recomputed.source).toBe('computed');
       expect(recomputed.params.events.settleTolerance).toBe(0.5);
       expect(recomputed.inrushEvents[0].settleTimeS).toBeLessThan(events.inrushEvents[0].settleTimeS);
+
+      // The answers are what openapi.yaml (and so the SDK's types) say, statistics field for field.
+      const stats = (await request(t.app).get(`/api/v1/traces/${trace.id}/stats?from=${T0 + 500}&percentiles=true`).set(auth)).body;
+      for (const [schema, body] of [[CloseResponse, closed.body], [EventsResponse, events], [EventsResponse, recomputed], [SeriesResponse, stored], [StatsResponse, stats]] as const) {
+        expect(schema.safeParse(body).error).toBeUndefined();
+      }
+      for (const statistics of [closed.body.analysis.statistics, stats.statistics, closed.body.trace.summary]) {
+        expect(Statistics.strict().safeParse(statistics).error).toBeUndefined();
+      }
     });
 
     it('when the window is empty or reversed, then the answer says so', async () => {

@@ -1,4 +1,5 @@
 import { z } from './common.js';
+import { Statistics } from './statistics.js';
 
 /** How raw readings become amperes (same shape as a trace's probe). */
 export const Probe = z
@@ -81,7 +82,7 @@ export const AnalyzeRequest = z
   })
   .openapi('AnalyzeRequest');
 
-const InrushEvent = z
+export const InrushEvent = z
   .object({
     onsetAt: z.number().openapi({ description: 'Switch-on time, epoch ms' }),
     peakA: z.number(),
@@ -97,7 +98,7 @@ const InrushEvent = z
   .catchall(z.unknown())
   .openapi('InrushEvent');
 
-const Surge = z
+export const Surge = z
   .object({
     startAt: z.number().openapi({ description: 'epoch ms' }),
     endAt: z.number().openapi({ description: 'epoch ms' }),
@@ -118,7 +119,7 @@ export const AnalyzeResponse = z
     rmsSeriesLength: z.number().int(),
     rmsSeriesMethod: z.string().nullable(),
     waveform: z.record(z.string(), z.unknown()).nullable().openapi({ description: 'Peak, RMS, DC, crest and form factor of a waveform; null for rms traces' }),
-    statistics: z.record(z.string(), z.unknown()).openapi({ description: 'Statistics of the RMS series (see README "What Headroom computes")' }),
+    statistics: Statistics.openapi({ description: 'Statistics of the RMS series (see README "What Headroom computes")' }),
     inrushEvents: z.array(InrushEvent),
     surges: z.array(Surge),
     onPeriodCount: z.number().int(),

@@ -3,7 +3,8 @@ import { BINARY_VALUE_TYPES } from '../../../ingest/binary-samples.js';
 import { CSV_DELIMITERS, READING_UNITS, type CsvDelimiter } from '../../../ingest/csv-samples.js';
 import { TIME_FORMATS, parseInstantUs } from '../../../ingest/timestamps.js';
 import { TRACE_SORTS } from '../../../services/traces.js';
-import { EventParamsInput, Probe } from './analyze.js';
+import { AnalyzeResponse, EventParamsInput, InrushEvent, Probe, Surge } from './analyze.js';
+import { Statistics } from './statistics.js';
 import { Id, Pagination, Timestamp, pageOf, z } from './common.js';
 
 const text = (max: number) => z.string().trim().max(max);
@@ -45,14 +46,6 @@ export const TraceCreate = z
 
 export const TraceUpdate = z.object(TraceFields).partial().strict().openapi('TraceUpdate');
 
-export const Statistics = z
-  .record(z.string(), z.unknown())
-  .openapi('TraceStatistics', {
-    description:
-      'Statistics in amperes (see README "What Headroom computes"): count, min/max with their time (`minAt`, `maxAt`, epoch ms), mean, RMS, ' +
-      'standard deviation, time-weighted mean, thermal-equivalent current, p50/p95/p99 (null when assembled from summaries), charge, energy, gaps.',
-  });
-
 export const Trace = z
   .object({
     id: Id,
@@ -72,7 +65,8 @@ export const Trace = z
     sampleCount: z.number().int(),
     firstSampleTime: z.number().nullable().openapi({ description: 'Time of the first stored sample, epoch ms' }),
     lastSampleTime: z.number().nullable().openapi({ description: 'Time of the last stored sample, epoch ms' }),
-    summary: Statistics.nullable().openapi({ description: 'Statistics of every stored sample, kept current on each append (no percentiles)' }),
+    // A union, not .nullable(): that would make the shared TraceStatistics schema itself nullable.
+    summary: z.union([Statistics, z.null()]).openapi({ description: 'Statistics of every stored sample, kept current on each append (no percentiles); null while empty' }),
     createdAt: Timestamp,
     updatedAt: Timestamp,
     closedAt: Timestamp.nullable(),
@@ -222,7 +216,7 @@ export const StatsResponse = z
     fromTime: z.number().nullable(),
     toTime: z.number().nullable(),
     source: z.enum(['summaries', 'samples', 'analysis']).openapi({ description: 'Chunk summaries (fast, no percentiles), the samples, or the analysis stored at close' }),
-    statistics: Statistics.nullable().openapi({ description: 'Null when the window holds no sample' }),
+    statistics: z.union([Statistics, z.null()]).openapi({ description: 'Null when the window holds no sample' }),
   })
   .openapi('TraceStats');
 
@@ -264,13 +258,12 @@ export const EventsQuery = z.object({
   mainsFrequencyHz: queryNumber(z.number().min(40).max(70)).optional(),
 });
 
-const EventList = z.array(z.record(z.string(), z.unknown()));
 export const EventsResponse = z
   .object({
     traceId: Id,
     source: z.enum(['stored', 'computed']).openapi({ description: 'Stored at close, or computed for this request (open trace or parameters given)' }),
-    inrushEvents: EventList.openapi({ description: 'Start-ups: onsetAt, peakA, peakAt, steadyA, peakToSteadyRatio, settleTimeS, i2tA2s… (times epoch ms)' }),
-    surges: EventList,
+    inrushEvents: z.array(InrushEvent).openapi({ description: 'Start-ups (times epoch ms)' }),
+    surges: z.array(Surge),
     onPeriodCount: z.number().int(),
     params: z.record(z.string(), z.unknown()).nullable(),
   })
@@ -283,5 +276,5 @@ export const ExportQuery = z.object({
 });
 
 export const CloseResponse = z
-  .object({ trace: Trace, analysis: z.record(z.string(), z.unknown()).openapi({ description: 'As POST /analyze answers: statistics, inrush events, surges, parameters' }) })
+  .object({ trace: Trace, analysis: AnalyzeResponse.openapi({ description: 'As POST /analyze answers: statistics, inrush events, surges, parameters' }) })
   .openapi('TraceClosed');

@@ -36,10 +36,6 @@ function SortHeader({
   );
 }
 
-const num = (s: Trace['summary'], key: string): number | null => {
-  const v = s?.[key];
-  return typeof v === 'number' ? v : null;
-};
 
 /** The traces of one page, with sortable columns. */
 export function TracesTable({
@@ -94,8 +90,8 @@ export function TracesTable({
                 <Badge tone={t.status === 'open' ? 'tight' : 'neutral'}>{t.status}</Badge>
               </td>
               <td className="whitespace-nowrap px-3 py-2">{formatDateTime(t.firstSampleTime ?? t.startTime, true)}</td>
-              <td className="px-3 py-2 text-right tabular-nums">{formatDuration(num(t.summary, 'durationS'))}</td>
-              <td className="px-3 py-2 text-right tabular-nums">{formatValue(num(t.summary, 'maxA'), 'A', 1)}</td>
+              <td className="px-3 py-2 text-right tabular-nums">{formatDuration(t.summary?.durationS ?? null)}</td>
+              <td className="px-3 py-2 text-right tabular-nums">{formatValue(t.summary?.maxA ?? null, 'A', 1)}</td>
               <td className="px-3 py-2 text-right tabular-nums">{t.sampleCount.toLocaleString()}</td>
               <td className="whitespace-nowrap px-3 py-2 text-ink-700">{formatDateTime(t.createdAt, true)}</td>
             </tr>
