@@ -11,6 +11,16 @@
 
 const POW10 = Array.from({ length: 23 }, (_, k) => 10 ** k);
 
+/**
+ * mantissa × 10^power, correctly rounded, when Clinger's fast path applies (at most 15 significant
+ * digits, |power| ≤ 22: both operands are exact doubles, so one operation rounds correctly); else null,
+ * and the caller reads the digits with Number(). Shared by the text and the byte (JSON body) readers.
+ */
+export function exactDecimal(mantissa: number, significant: number, power: number): number | null {
+  if (significant > 15 || power < -22 || power > 22) return null;
+  return power < 0 ? mantissa / (POW10[-power] as number) : mantissa * (POW10[power] as number);
+}
+
 /** The number `text` spells, or NaN when it is not a decimal number in the grammar above. */
 export function parseDecimalText(text: string): number {
   const end = text.length;
@@ -60,8 +70,8 @@ export function parseDecimalText(text: string): number {
   }
   if (i !== end) return Number.NaN;
   const power = exponent - fractionDigits;
-  if (significant > 15 || power < -22 || power > 22) return Number(text);
-  const value = power < 0 ? mantissa / (POW10[-power] as number) : mantissa * (POW10[power] as number);
+  const value = exactDecimal(mantissa, significant, power);
+  if (value === null) return Number(text);
   return negative ? -value : value;
 }
 

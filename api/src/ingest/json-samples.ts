@@ -17,6 +17,7 @@
  */
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
+import { exactDecimal } from './decimal-text.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
@@ -44,7 +45,6 @@ const enum State {
   Done,
 }
 
-const POW10 = Array.from({ length: 23 }, (_, k) => 10 ** k);
 /** A token longer than this (bytes) is refused rather than carried over without bound. */
 const MAX_TOKEN_BYTES = 4096;
 
@@ -104,12 +104,7 @@ export function parseJsonNumber(buf: Uint8Array, start: number, end: number): nu
   }
   if (i !== end) return Number.NaN;
   const power = exponent - fractionDigits;
-  let value: number;
-  if (significant <= 15 && power >= -22 && power <= 22) {
-    value = power < 0 ? mantissa / (POW10[-power] as number) : mantissa * (POW10[power] as number);
-  } else {
-    value = Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, end - digitsStart).toString('latin1'));
-  }
+  const value = exactDecimal(mantissa, significant, power) ?? Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, end - digitsStart).toString('latin1'));
   return negative ? -value : value;
 }
 

@@ -33,6 +33,10 @@ interface EnvelopeEntry {
   bytes: number;
 }
 
+function blobBytes(envelopes: readonly ChunkEnvelope[]): number {
+  return envelopes.reduce((n, e) => n + e.envelope.length + (e.times?.length ?? 0), 0);
+}
+
 interface Entry {
   chunkCount: number;
   sampleCount: number;
@@ -111,22 +115,21 @@ export class CachedChunkStore implements ChunkStore {
   private async holdEnvelopes(traceId: string, stableCount: number, withTimes: boolean): Promise<EnvelopeEntry | undefined> {
     const bySeq = await this.store.readEnvelopes(traceId, 0, stableCount - 1, withTimes);
     if (bySeq.length !== stableCount || bySeq.some((e, k) => e.seq !== k)) return undefined;
-    const bytes = bySeq.reduce((n, e) => n + e.envelope.length + (e.times?.length ?? 0), 0);
-    if (bytes > MAX_TRACE_ENVELOPE_BYTES) return undefined;
-    while (this.envelopeBytes + bytes > MAX_CACHED_ENVELOPE_BYTES && this.envelopes.size > 0) this.forgetEnvelopes(this.envelopes.keys().next().value as string);
-    const entry = { stableCount, withTimes, bySeq, bytes };
-    this.envelopes.set(traceId, entry);
-    this.envelopeBytes += bytes;
-    return entry;
+    return this.keepEnvelopes(traceId, { stableCount, withTimes, bySeq, bytes: blobBytes(bySeq) });
   }
 
   /** Adds the chunks that have become stable since (the trace grew); forgets the trace's entry when they do not fit. */
   private async extendEnvelopes(traceId: string, held: EnvelopeEntry, stableCount: number): Promise<EnvelopeEntry | undefined> {
     const more = await this.store.readEnvelopes(traceId, held.stableCount, stableCount - 1, held.withTimes);
-    const bytes = more.reduce((n, e) => n + e.envelope.length + (e.times?.length ?? 0), 0);
     this.forgetEnvelopes(traceId);
-    if (more.some((e, k) => e.seq !== held.stableCount + k) || held.bytes + bytes > MAX_TRACE_ENVELOPE_BYTES) return undefined;
-    const entry = { stableCount: held.stableCount + more.length, withTimes: held.withTimes, bySeq: held.bySeq.concat(more), bytes: held.bytes + bytes };
+    if (more.some((e, k) => e.seq !== held.stableCount + k)) return undefined;
+    const bySeq = held.bySeq.concat(more);
+    return this.keepEnvelopes(traceId, { stableCount: bySeq.length, withTimes: held.withTimes, bySeq, bytes: held.bytes + blobBytes(more) });
+  }
+
+  /** Keeps the entry, room made by forgetting the least recently used; undefined when one trace's is too big. */
+  private keepEnvelopes(traceId: string, entry: EnvelopeEntry): EnvelopeEntry | undefined {
+    if (entry.bytes > MAX_TRACE_ENVELOPE_BYTES) return undefined;
     while (this.envelopeBytes + entry.bytes > MAX_CACHED_ENVELOPE_BYTES && this.envelopes.size > 0) this.forgetEnvelopes(this.envelopes.keys().next().value as string);
     this.envelopes.set(traceId, entry);
     this.envelopeBytes += entry.bytes;

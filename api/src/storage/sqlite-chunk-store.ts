@@ -92,6 +92,15 @@ function pipeline(conn: SqliteDatabase, statements: Statement[]): Promise<number
   });
 }
 
+/** Runs each stage's statements with `runStatements`; false as soon as a stage's check refuses its change counts. */
+async function runStages(stages: Stage[], runStatements: (statements: Statement[]) => Promise<number[]>): Promise<boolean> {
+  for (const stage of stages) {
+    const changes = await runStatements(stage.statements);
+    if (stage.check && !stage.check(changes)) return false;
+  }
+  return true;
+}
+
 function all<T>(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<T[]> {
   return new Promise((resolve, reject) => {
     conn.all(sql, params, (err: Error | null, rows: T[]) => (err ? reject(err) : resolve(rows)));
@@ -144,17 +153,11 @@ export class SqliteChunkStore implements ChunkStore {
   private transact(stages: Stage[]): Promise<boolean> {
     const next = this.writeQueue.then(async () => {
       if (this.inMemory) {
-        const runStages = async (conn: SqliteDatabase): Promise<boolean> => {
-          for (const stage of stages) {
-            const changes = await pipeline(conn, stage.statements);
-            if (stage.check && !stage.check(changes)) return false;
-          }
-          return true;
-        };
         const refused = new Error('refused');
         try {
           await this.sequelize.transaction(async (transaction) => {
-            if (!(await runStages((transaction as unknown as { connection: SqliteDatabase }).connection))) throw refused;
+            const conn = (transaction as unknown as { connection: SqliteDatabase }).connection;
+            if (!(await runStages(stages, (statements) => pipeline(conn, statements)))) throw refused;
           });
           return true;
         } catch (err) {
@@ -167,18 +170,15 @@ export class SqliteChunkStore implements ChunkStore {
         await run(conn, 'PRAGMA wal_autocheckpoint = 0');
         this.writerReady = true;
       }
-      const runStages = async (): Promise<boolean> => {
-        for (const stage of stages) {
-          const changes: number[] = [];
-          for (const [sql, params] of stage.statements) changes.push(await this.prepared.run(conn, sql, params));
-          if (stage.check && !stage.check(changes)) return false;
-        }
-        return true;
+      const oneByOne = async (statements: Statement[]): Promise<number[]> => {
+        const changes: number[] = [];
+        for (const [sql, params] of statements) changes.push(await this.prepared.run(conn, sql, params));
+        return changes;
       };
       await this.prepared.run(conn, 'BEGIN IMMEDIATE');
       let committed = false;
       try {
-        if (await runStages()) {
+        if (await runStages(stages, oneByOne)) {
           await this.prepared.run(conn, 'COMMIT');
           committed = true;
         }
