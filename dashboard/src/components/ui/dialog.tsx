@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { Button } from './button';
+import { ErrorState } from './states';
 
 /**
  * A modal dialog on the native <dialog> element: the browser traps focus, Escape closes it, and focus
@@ -89,5 +90,37 @@ export function ConfirmDialog({
     >
       {children}
     </Dialog>
+  );
+}
+
+/**
+ * The end of a form in a dialog: the mutation's error when it failed, Cancel, and the submit button
+ * (disabled while the mutation runs or when `canSubmit` is false, with `pendingLabel` meanwhile).
+ */
+export function FormFooter({
+  mutation,
+  onCancel,
+  submitLabel,
+  pendingLabel = 'Saving…',
+  canSubmit = true,
+}: {
+  mutation: { isPending: boolean; isError: boolean; error: unknown };
+  onCancel: () => void;
+  submitLabel: string;
+  pendingLabel?: string;
+  canSubmit?: boolean;
+}) {
+  return (
+    <>
+      {mutation.isError ? <ErrorState error={mutation.error} /> : null}
+      <div className="flex justify-end gap-2 pt-2">
+        <Button variant="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
+        <Button type="submit" disabled={mutation.isPending || !canSubmit}>
+          {mutation.isPending ? pendingLabel : submitLabel}
+        </Button>
+      </div>
+    </>
   );
 }

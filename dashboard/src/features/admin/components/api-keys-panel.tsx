@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Badge, type BadgeTone } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
-import { ConfirmDialog, Dialog } from '../../../components/ui/dialog';
+import { ConfirmDialog, Dialog, FormFooter } from '../../../components/ui/dialog';
 import { CheckboxField, TextField } from '../../../components/ui/field';
 import { EmptyState, ErrorState, fieldError, LoadingState } from '../../../components/ui/states';
 import { formatDateTime } from '../../../lib/format';
@@ -88,15 +88,13 @@ function CreateKeyDialog({
           hint="Leave empty for a key that works until revoked"
           error={fieldError(create.error, '/expiresAt')}
         />
-        {create.isError ? <ErrorState error={create.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={create.isPending || !name.trim() || scopes.length === 0}>
-            {create.isPending ? 'Creating…' : 'Create key'}
-          </Button>
-        </div>
+        <FormFooter
+          mutation={create}
+          onCancel={onClose}
+          submitLabel="Create key"
+          pendingLabel="Creating…"
+          canSubmit={name.trim() !== '' && scopes.length > 0}
+        />
       </form>
     </Dialog>
   );

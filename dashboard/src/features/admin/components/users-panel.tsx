@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Badge, type BadgeTone } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
-import { ConfirmDialog, Dialog } from '../../../components/ui/dialog';
+import { ConfirmDialog, Dialog, FormFooter } from '../../../components/ui/dialog';
 import { inputClass, SelectField, TextField } from '../../../components/ui/field';
 import { EmptyState, ErrorState, fieldError, LoadingState } from '../../../components/ui/states';
 import { formatDateTime } from '../../../lib/format';
@@ -51,15 +51,13 @@ function InviteDialog({ open, onClose }: { open: boolean; onClose: () => void })
           <option value="engineer">Engineer</option>
           <option value="admin">Admin</option>
         </SelectField>
-        {invite.isError ? <ErrorState error={invite.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={invite.isPending || !email.trim() || !name.trim()}>
-            {invite.isPending ? 'Sending…' : 'Send invitation'}
-          </Button>
-        </div>
+        <FormFooter
+          mutation={invite}
+          onCancel={onClose}
+          submitLabel="Send invitation"
+          pendingLabel="Sending…"
+          canSubmit={email.trim() !== '' && name.trim() !== ''}
+        />
       </form>
     </Dialog>
   );

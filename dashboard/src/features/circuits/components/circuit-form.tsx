@@ -1,8 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Dialog, FormFooter } from '../../../components/ui/dialog';
 import { CheckboxField, SelectField, TextAreaField, TextField } from '../../../components/ui/field';
-import { ErrorState, fieldError } from '../../../components/ui/states';
+import { fieldError } from '../../../components/ui/states';
 import { deviceKindLabels } from '../../../lib/labels';
 import { useSaveCircuit, type Circuit, type CircuitCreate } from '../api/circuits';
 
@@ -142,15 +141,7 @@ export function CircuitFormDialog({
           <option value={2020}>NFPA 70, 2020</option>
         </SelectField>
         <TextAreaField label="Notes" rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} />
-        {save.isError ? <ErrorState error={save.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={save.isPending || !label.trim()}>
-            {save.isPending ? 'Saving…' : 'Save circuit'}
-          </Button>
-        </div>
+        <FormFooter mutation={save} onCancel={onClose} submitLabel="Save circuit" canSubmit={label.trim() !== ''} />
       </form>
     </Dialog>
   );

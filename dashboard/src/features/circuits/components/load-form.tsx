@@ -1,8 +1,6 @@
 import { useState, type FormEvent } from 'react';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Dialog, FormFooter } from '../../../components/ui/dialog';
 import { TextAreaField } from '../../../components/ui/field';
-import { ErrorState } from '../../../components/ui/states';
 import { useSaveLoad, type Load } from '../api/loads';
 import { draftFromLoad, emptyLoadDraft, LoadFigureFields, loadFiguresFromDraft } from './load-fields';
 
@@ -29,15 +27,7 @@ export function LoadFormDialog({
       <form className="space-y-3" onSubmit={submit}>
         <LoadFigureFields draft={draft} onChange={setDraft} error={save.error} />
         <TextAreaField label="Notes" rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} />
-        {save.isError ? <ErrorState error={save.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={save.isPending || !draft.name.trim()}>
-            {save.isPending ? 'Saving…' : 'Save load'}
-          </Button>
-        </div>
+        <FormFooter mutation={save} onCancel={onClose} submitLabel="Save load" canSubmit={draft.name.trim() !== ''} />
       </form>
     </Dialog>
   );

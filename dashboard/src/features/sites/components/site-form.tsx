@@ -1,8 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Dialog, FormFooter } from '../../../components/ui/dialog';
 import { TextAreaField, TextField } from '../../../components/ui/field';
-import { ErrorState, fieldError } from '../../../components/ui/states';
+import { fieldError } from '../../../components/ui/states';
 import { useSaveSite, type Site } from '../api/sites';
 
 const blankToNull = (v: string) => (v.trim() ? v.trim() : null);
@@ -66,15 +65,7 @@ export function SiteFormDialog({
           onChange={(e) => setClientContact(e.target.value)}
         />
         <TextAreaField label="Notes" rows={3} value={notes} onChange={(e) => setNotes(e.target.value)} />
-        {save.isError ? <ErrorState error={save.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={save.isPending || !name.trim()}>
-            {save.isPending ? 'Saving…' : 'Save site'}
-          </Button>
-        </div>
+        <FormFooter mutation={save} onCancel={onClose} submitLabel="Save site" canSubmit={name.trim() !== ''} />
       </form>
     </Dialog>
   );

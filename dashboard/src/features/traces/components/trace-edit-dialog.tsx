@@ -1,9 +1,8 @@
 import { useState, type FormEvent } from 'react';
 import { AssignmentFields, type Assignment } from '../../../components/assignment-fields';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Dialog, FormFooter } from '../../../components/ui/dialog';
 import { TextAreaField, TextField } from '../../../components/ui/field';
-import { ErrorState, fieldError } from '../../../components/ui/states';
+import { fieldError } from '../../../components/ui/states';
 import { useUpdateTrace, type Trace } from '../api/traces';
 
 /** Edit a trace's name, assignment, supply figures, tags and notes (samples never change). */
@@ -74,15 +73,7 @@ export function TraceEditDialog({ trace, open, onClose }: { trace: Trace; open: 
         </div>
         <TextField label="Tags" value={tags} onChange={(e) => setTags(e.target.value)} hint="Separated by commas" />
         <TextAreaField label="Notes" rows={3} value={notes} onChange={(e) => setNotes(e.target.value)} />
-        {update.isError ? <ErrorState error={update.error} /> : null}
-        <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onClose}>
-            Cancel
-          </Button>
-          <Button type="submit" disabled={update.isPending || !name.trim()}>
-            {update.isPending ? 'Saving…' : 'Save'}
-          </Button>
-        </div>
+        <FormFooter mutation={update} onCancel={onClose} submitLabel="Save" canSubmit={name.trim() !== ''} />
       </form>
     </Dialog>
   );
