@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { Problem } from '../errors/problem.js';
-import { parseJsonNumber, readJsonSamples } from './json-samples.js';
+import { parseJsonNumber } from './decimal-text.js';
+import { readJsonSamples } from './json-samples.js';
 import { collectingSink } from './test-support.js';
 import { TimestampReader } from './timestamps.js';
 

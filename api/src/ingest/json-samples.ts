@@ -17,7 +17,7 @@
  */
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
-import { exactDecimal } from './decimal-text.js';
+import { parseJsonNumber } from './decimal-text.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
@@ -47,66 +47,6 @@ const enum State {
 
 /** A token longer than this (bytes) is refused rather than carried over without bound. */
 const MAX_TOKEN_BYTES = 4096;
-
-const isDigit = (b: number) => b >= 48 && b <= 57;
-
-/**
- * A JSON number in buf[start, end), or NaN when the bytes are not one (RFC 8259 grammar).
- * Integers and decimals of up to 15 significant digits with a small exponent take the exact fast path.
- */
-export function parseJsonNumber(buf: Uint8Array, start: number, end: number): number {
-  let i = start;
-  let negative = false;
-  if (buf[i] === 45) {
-    negative = true;
-    i++;
-  }
-  if (i >= end) return Number.NaN;
-  const digitsStart = i;
-  let mantissa = 0;
-  let significant = 0;
-  let fractionDigits = 0;
-  const first = buf[i] as number;
-  if (first === 48) {
-    i++;
-    if (i < end && isDigit(buf[i] as number)) return Number.NaN;
-  } else if (first >= 49 && first <= 57) {
-    while (i < end && isDigit(buf[i] as number)) {
-      mantissa = mantissa * 10 + ((buf[i] as number) - 48);
-      significant++;
-      i++;
-    }
-  } else return Number.NaN;
-  if (i < end && buf[i] === 46) {
-    i++;
-    if (i >= end || !isDigit(buf[i] as number)) return Number.NaN;
-    while (i < end && isDigit(buf[i] as number)) {
-      mantissa = mantissa * 10 + ((buf[i] as number) - 48);
-      if (mantissa > 0) significant++;
-      fractionDigits++;
-      i++;
-    }
-  }
-  let exponent = 0;
-  if (i < end && (buf[i] === 101 || buf[i] === 69)) {
-    i++;
-    let expNegative = false;
-    if (buf[i] === 43 || buf[i] === 45) {
-      expNegative = buf[i] === 45;
-      i++;
-    }
-    if (i >= end || !isDigit(buf[i] as number)) return Number.NaN;
-    while (i < end && isDigit(buf[i] as number)) {
-      if (exponent < 100000) exponent = exponent * 10 + ((buf[i] as number) - 48);
-      i++;
-    }
-    if (expNegative) exponent = -exponent;
-  }
-  if (i !== end) return Number.NaN;
-  const power = exponent - fractionDigits;
-  const value = exactDecimal(mantissa, significant, power) ?? Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, end - digitsStart).toString('latin1'));
-  return negative ? -value : value;
-}
 
 class JsonSampleParser {
   private state = State.Start;

@@ -11,9 +11,14 @@ async function* body(text: string) {
   yield Buffer.from(text);
 }
 
-async function read(text: string) {
+async function* pieces(text: string, size: number) {
+  const buf = Buffer.from(text);
+  for (let i = 0; i < buf.length; i += size) yield buf.subarray(i, i + size);
+}
+
+async function read(text: string, pieceBytes?: number) {
   const sink = collect();
-  await readNdjsonSamples(body(text), new TimestampReader({ traceStartUs: null }), sink);
+  await readNdjsonSamples(pieceBytes ? pieces(text, pieceBytes) : body(text), new TimestampReader({ traceStartUs: null }), sink);
   return sink;
 }
 
@@ -57,5 +62,29 @@ describe('NDJSON sample bodies', () => {
     const sink = await read('{"t":"2026-03-02T08:00:00Z","a":8.5}\n\n{ "a" : 8.25 , "t" : "2026-03-02T08:00:00.05Z" }\r\n');
     expect(sink.values).toEqual([8.5, 8.25]);
     expect(sink.times).toEqual([Date.parse('2026-03-02T08:00:00Z') * 1000, Date.parse('2026-03-02T08:00:00.050Z') * 1000]);
+  });
+
+  it('when a body arrives in pieces of any size (lines, CRLF and UTF-8 characters cut between them), then the same samples and errors come out', async () => {
+    const text = '{"t":1772438400000,"a":1.5}\r\n\n{ "a" : -2e-3 ,\r"t" : 1772438400050 }\r\n{"t":1772438400100,"a":3}';
+    const { values, times } = await read(text);
+    const whole = { values, times };
+    expect(whole.values).toEqual([1.5, Math.fround(-2e-3), 3]);
+    const refused = `${text}\n{"t":1772438400200,"a":4,"é":1}\n`;
+    for (const size of [1, 2, 3, 7, 1000]) {
+      expect(await read(text, size), `pieces of ${size}`).toMatchObject(whole);
+      const err = (await read(refused, size).catch((e: unknown) => e)) as Problem;
+      expect(JSON.stringify(err.errors), `pieces of ${size}`).toContain('unknown member \\"é\\"');
+      expect(err.errors?.[0]).toMatchObject({ line: 5 });
+    }
+  });
+
+  it('when a line is longer than the limit, then the body is refused naming that line', async () => {
+    async function* endless() {
+      yield Buffer.from('{"t":1772438400000,"a":1}\n{"t":');
+      for (let i = 0; i < 20; i++) yield Buffer.alloc(64 * 1024, 0x31);
+    }
+    const err = (await readNdjsonSamples(endless(), new TimestampReader({ traceStartUs: null }), collect()).catch((e: unknown) => e)) as Problem;
+    expect(err).toBeInstanceOf(Problem);
+    expect(err.message).toMatch(/line 2\b.*too long|too long.*line 2\b/);
   });
 });

@@ -5,9 +5,9 @@
  */
 import type { ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
-import { LineSplitter, splitBody } from './line-splitter.js';
+import { ByteLineSplitter, splitBody } from './line-splitter.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink } from './sample-sink.js';
-import { isJsonNumberText, parseDecimalText } from './decimal-text.js';
+import { parseJsonNumber } from './decimal-text.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 /** Samples gathered before they are handed to the writer. */
@@ -19,41 +19,41 @@ interface PlainRecord {
   a: number;
 }
 
-function skipSpaces(text: string, i: number): number {
-  let c = text.charCodeAt(i);
-  while (c === 32 || c === 9) c = text.charCodeAt(++i);
+function skipSpaces(buf: Buffer, i: number, end: number): number {
+  while (i < end && (buf[i] === 32 || buf[i] === 9)) i++;
   return i;
 }
 
 /**
- * Reads the usual line, `{"t": <number>, "a": <number>}` (either order, spaces allowed), without
- * JSON.parse and the object it makes; false for anything else (a string timestamp, another member, a
- * malformed line), which then goes through JSON.parse and its checks and messages.
+ * Reads the usual line, `{"t": <number>, "a": <number>}` (either order, spaces allowed), straight from
+ * the body's bytes: no string, no JSON.parse and no object per line. False for anything else (a string
+ * timestamp, another member, a malformed line), which then goes through JSON.parse and its checks and
+ * messages.
  */
-function plainRecord(text: string, out: PlainRecord): boolean {
-  let i = skipSpaces(text, 0);
-  if (text.charCodeAt(i) !== 123) return false; // {
+function plainRecord(buf: Buffer, start: number, end: number, out: PlainRecord): boolean {
+  let i = skipSpaces(buf, start, end);
+  if (i >= end || buf[i] !== 123) return false; // {
   let seen = 0;
   for (let member = 0; member < 2; member++) {
-    i = skipSpaces(text, i + 1);
-    const key = text.charCodeAt(i + 1);
-    if (text.charCodeAt(i) !== 34 || text.charCodeAt(i + 2) !== 34 || (key !== 116 && key !== 97)) return false; // "t" or "a"
-    const bit = key === 116 ? 1 : 2;
-    if (seen & bit) return false;
+    i = skipSpaces(buf, i + 1, end);
+    if (i + 3 > end || buf[i] !== 34 || buf[i + 2] !== 34) return false; // "t" or "a"
+    const key = buf[i + 1];
+    const bit = key === 116 ? 1 : key === 97 ? 2 : 0;
+    if (bit === 0 || seen & bit) return false;
     seen |= bit;
-    i = skipSpaces(text, i + 3);
-    if (text.charCodeAt(i) !== 58) return false; // :
-    const start = skipSpaces(text, i + 1);
-    let end = start;
-    for (let c = text.charCodeAt(end); (c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46 || c === 101 || c === 69; c = text.charCodeAt(++end));
-    if (!isJsonNumberText(text, start, end)) return false;
-    const value = parseDecimalText(text.slice(start, end));
+    i = skipSpaces(buf, i + 3, end);
+    if (i >= end || buf[i] !== 58) return false; // :
+    const numberStart = skipSpaces(buf, i + 1, end);
+    let numberEnd = numberStart;
+    for (let c = buf[numberEnd] as number; numberEnd < end && ((c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46 || c === 101 || c === 69); c = buf[++numberEnd] as number);
+    const value = parseJsonNumber(buf, numberStart, numberEnd);
+    if (Number.isNaN(value)) return false;
     if (bit === 1) out.t = value;
     else out.a = value;
-    i = skipSpaces(text, end);
-    if (text.charCodeAt(i) !== (member === 0 ? 44 : 125)) return false; // , then }
+    i = skipSpaces(buf, numberEnd, end);
+    if (i >= end || buf[i] !== (member === 0 ? 44 : 125)) return false; // , then }
   }
-  return skipSpaces(text, i + 1) === text.length;
+  return skipSpaces(buf, i + 1, end) === end;
 }
 
 /** Column (1-based) of a JSON.parse error, from the position in its message when there is one. */
@@ -89,8 +89,9 @@ export async function readNdjsonSamples(chunks: AsyncIterable<Buffer>, timestamp
   };
 
   const plain: PlainRecord = { t: 0, a: 0 };
-  const splitter = new LineSplitter((text, line) => {
-    if (plainRecord(text, plain)) return accept(plain.t, plain.a, line);
+  const splitter = new ByteLineSplitter((buf, start, end, line) => {
+    if (plainRecord(buf, start, end, plain)) return accept(plain.t, plain.a, line);
+    const text = buf.toString('utf8', start, end);
     if (text.trim() === '') return;
     let record: unknown;
     try {
