@@ -4,7 +4,9 @@
  *
  * 1. Ingest rates, WORKERS connections each appending to its own trace: float32 binary batches of
  *    100,000 samples, JSON batches of 10,000 (`{"t","a"}` and `{"values"}`), CSV and NDJSON batches of
- *    10,000 rows. Bodies are built before the clock starts.
+ *    10,000 rows. Bodies are built (as bytes) before the clock starts. For scale, the `{"values"}`
+ *    batches also go to a bare Express endpoint that only parses them (bench/support/json-floor-server.ts).
+ *    INGEST_FORMATS=json (a part of the format names) runs only those formats, and only this section.
  * 2. Query latency on a 10,000,000-sample trace and on a 100-sample trace: `series?points=1000` of the
  *    whole range and of a 1 % window at a random place, and `stats` of a random window (medians and
  *    p95 of QUERY_RUNS sequential requests after warm-up), with the 10M / 100 ratio.
@@ -14,6 +16,7 @@
  * under 20 ms on the 10M trace and within 2× of the 100-sample trace; peak RSS under 300 MB.
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { spawn } from 'node:child_process';
 import http from 'node:http';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
@@ -27,6 +30,8 @@ const WORKERS = Number(process.env.INGEST_WORKERS ?? 4);
 const QUERY_RUNS = Number(process.env.INGEST_QUERY_RUNS ?? 40);
 const BIG_SAMPLES = 10_000_000;
 const STREAM_SAMPLES = Number(process.env.INGEST_STREAM_SAMPLES ?? 100_000_000);
+/** Only the ingest formats whose name contains this (e.g. `json`), and only section 1 when set. */
+const ONLY_FORMATS = (process.env.INGEST_FORMATS ?? '').toLowerCase();
 const T0 = Date.parse('2026-03-02T08:00:00Z');
 
 let agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
@@ -188,21 +193,51 @@ const FORMATS: Format[] = [
   },
 ];
 
-async function ingestRate(format: Format): Promise<number> {
+/** Samples per second of WORKERS connections each posting `format`'s batches, to its own trace or to `url`. */
+async function ingestRate(format: Format, url?: string): Promise<number> {
   const traces: string[] = [];
-  for (let w = 0; w < WORKERS; w++) traces.push(await newTrace(`${format.name} #${w}`, format.traceExtra));
-  // Bodies first (not timed); batch 0 is the warm-up.
-  const bodies = traces.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => format.body(w, b)));
+  for (let w = 0; w < WORKERS; w++) traces.push(url ? '' : await newTrace(`${format.name} #${w}`, format.traceExtra));
+  const target = (id: string, b: number) => url ?? `/traces/${id}/samples${format.query(b)}`;
+  // Bodies first, as bytes (not timed: the client's own text encoding is not the server's speed); batch 0 is the warm-up.
+  const bytes = new Map<Buffer | string, Buffer>();
+  const asBytes = (body: Buffer | string) => (typeof body === 'string' ? (bytes.get(body) ?? bytes.set(body, Buffer.from(body)).get(body)!) : body);
+  const bodies = traces.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => asBytes(format.body(w, b))));
   freshConnections();
-  await Promise.all(traces.map((id, w) => ok('POST', `/traces/${id}/samples${format.query(0)}`, bodies[w]![0], format.contentType)));
+  await Promise.all(traces.map((id, w) => ok('POST', target(id, 0), bodies[w]![0], format.contentType)));
   const started = performance.now();
   await Promise.all(
     traces.map(async (id, w) => {
-      for (let b = 1; b <= format.batchesPerWorker; b++) await ok('POST', `/traces/${id}/samples${format.query(b)}`, bodies[w]![b], format.contentType);
+      for (let b = 1; b <= format.batchesPerWorker; b++) await ok('POST', target(id, b), bodies[w]![b], format.contentType);
     }),
   );
   const seconds = (performance.now() - started) / 1000;
   return (WORKERS * format.batchesPerWorker * format.batchSamples) / seconds;
+}
+
+/**
+ * The same JSON `{"values"}` batches posted to a bare Express endpoint (bench/support/json-floor-server.ts)
+ * on the same machine and client: what this machine allows any Express endpoint before it does any work.
+ */
+async function jsonFloorRate(format: Format): Promise<number> {
+  const floorPort = await freePort();
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'support/json-floor-server.ts'), String(floorPort)], {
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  try {
+    await new Promise<void>((resolve, reject) => {
+      child.stdout.on('data', (d: Buffer) => d.toString().includes('listening') && resolve());
+      child.once('exit', (code) => reject(new Error(`the floor server exited (${String(code)})`)));
+    });
+    const server = base;
+    base = { ...base, port: floorPort };
+    try {
+      return await ingestRate(format, '/floor');
+    } finally {
+      base = server;
+    }
+  } finally {
+    child.kill('SIGTERM');
+  }
 }
 
 // ---------------------------------------------------------------- 2. query latency
@@ -296,11 +331,20 @@ async function main() {
 
     console.log('1. Ingest over HTTP (samples stored per second, batches committed)');
     const rates: Record<string, number> = {};
-    for (const format of FORMATS) {
+    for (const format of FORMATS.filter((f) => f.name.toLowerCase().includes(ONLY_FORMATS))) {
       const rate = await ingestRate(format);
       rates[format.name] = rate;
       console.log(`   ${format.name.padEnd(48)} ${fmtRate(rate).padStart(18)}   ${(rate / format.target).toFixed(2)}× the target of ${format.target / 1e6} M/s`);
     }
+    const valuesFormat = FORMATS.find((f) => f.name.includes('{"values"}'))!;
+    if (rates[valuesFormat.name] !== undefined) {
+      const floor = await jsonFloorRate(valuesFormat);
+      console.log(
+        `   (calibration: the same {"values"} batches to a bare Express endpoint that only parses them, no auth, checks or storage: ` +
+          `${fmtRate(floor)}; Headroom reaches ${(rates[valuesFormat.name]! / floor).toFixed(2)} of it)`,
+      );
+    }
+    if (ONLY_FORMATS) return;
     const binary = rates[FORMATS[0]!.name]!;
     console.log(`   ratios to binary: ${FORMATS.slice(1).map((f) => `${f.name.split(',')[0]} ${(rates[f.name]! / binary).toFixed(2)}`).join(', ')}`);
 
