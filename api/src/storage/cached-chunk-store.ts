@@ -91,6 +91,10 @@ export class CachedChunkStore implements ChunkStore {
     return this.store.readData(traceId, fromSeq, toSeq);
   }
 
+  readDataOf(traceId: string, seqs: number[]): Promise<ChunkData[]> {
+    return this.store.readDataOf(traceId, seqs);
+  }
+
   async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
     // Chunks before the last one the cached rows know of never change.
     const stableCount = Math.max(0, (this.entries.get(traceId)?.chunkCount ?? 0) - 1);

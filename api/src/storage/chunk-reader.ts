@@ -68,6 +68,13 @@ export function chunkInside(row: ChunkSummaryRow, fromUs: number, toUs: number):
   return row.firstUs >= fromUs && row.lastUs <= toUs;
 }
 
+/** The data of a window's edge chunks (those partly outside it: at most two), in one query, by seq. */
+export async function readEdgeData(store: ChunkStore, traceId: string, rows: ChunkSummaryRow[]): Promise<Map<number, ChunkData>> {
+  const bySeq = new Map((await store.readDataOf(traceId, rows.map((row) => row.seq))).map((d) => [d.seq, d]));
+  for (const row of rows) if (!bySeq.has(row.seq)) throw new Error(`chunk ${row.seq} of trace ${traceId} has no data`);
+  return bySeq;
+}
+
 /** Decoded chunks seq ∈ [fromSeq, toSeq], read in groups so memory stays bounded by the caller's use. */
 export async function* readChunks(store: ChunkStore, traceId: string, rows: ChunkSummaryRow[], groupSize = 64): AsyncGenerator<DecodedChunk> {
   for (let start = 0; start < rows.length; start += groupSize) {

@@ -88,6 +88,8 @@ export interface ChunkStore {
   readSummaries(traceId: string, chunkCount: number, fromUs: number, toUs: number, sampleCount?: number): Promise<ChunkSummaryRow[]>;
   /** Samples and times of chunks seq ∈ [fromSeq, toSeq], in order. */
   readData(traceId: string, fromSeq: number, toSeq: number): Promise<ChunkData[]>;
+  /** Samples and times of the chunks `seqs` (a few: a window's two edge chunks), in order, in one query. */
+  readDataOf(traceId: string, seqs: number[]): Promise<ChunkData[]>;
   /** Envelope blobs of chunks seq ∈ [fromSeq, toSeq], in order, with their times blobs when asked. */
   readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]>;
 }

@@ -13,8 +13,8 @@
  * in view, buckets simply run across them). Never more than N buckets, whatever the window.
  */
 import { CHUNK_SAMPLES, ENVELOPE_BLOCK_SAMPLES, decodeEnvelope, decodeTimes } from './chunk-codec.js';
-import { chunkInside, decodeChunk, indexRangeInWindow, readChunks, uniformTimeUs, type DecodedChunk } from './chunk-reader.js';
-import type { ChunkStore } from './chunk-store.js';
+import { chunkInside, decodeChunk, indexRangeInWindow, readChunks, readEdgeData, uniformTimeUs, type DecodedChunk } from './chunk-reader.js';
+import type { ChunkData, ChunkStore } from './chunk-store.js';
 import type { ChunkSummaryRow } from './summary-rows.js';
 import type { StoredTrace } from './window-summary.js';
 
@@ -136,10 +136,9 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   let sampleCount = 0;
   const edgeRows = rows.filter((row) => !chunkInside(row, fromUs, toUs));
   for (const row of rows) if (chunkInside(row, fromUs, toUs)) sampleCount += row.count;
-  const edgeData = await Promise.all(edgeRows.map((row) => store.readData(trace.traceId, row.seq, row.seq)));
-  edgeRows.forEach((row, k) => {
-    const data = edgeData[k]?.[0];
-    if (!data) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no data`);
+  const edgeData = await readEdgeData(store, trace.traceId, edgeRows);
+  edgeRows.forEach((row) => {
+    const data = edgeData.get(row.seq) as ChunkData;
     const chunk = decodeChunk(row, data);
     const range = indexRangeInWindow(chunk, fromUs, toUs);
     edges.set(row.seq, { chunk, ...range });

@@ -91,6 +91,17 @@ export class SequelizeChunkStore implements ChunkStore {
     return rows as unknown as ChunkData[];
   }
 
+  async readDataOf(traceId: string, seqs: number[]): Promise<ChunkData[]> {
+    if (seqs.length === 0) return [];
+    const rows = await this.db.models.TraceChunkData.findAll({
+      attributes: ['seq', 'samples', 'times'],
+      where: { traceId, seq: { [Op.in]: seqs } },
+      order: [['seq', 'ASC']],
+      raw: true,
+    });
+    return rows as unknown as ChunkData[];
+  }
+
   async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
     const rows = await this.db.models.TraceChunkData.findAll({
       attributes: withTimes ? ['seq', 'envelope', 'times'] : ['seq', 'envelope'],

@@ -304,6 +304,14 @@ export class SqliteChunkStore implements ChunkStore {
     );
   }
 
+  async readDataOf(traceId: string, seqs: number[]): Promise<ChunkData[]> {
+    if (seqs.length === 0) return [];
+    return this.query<ChunkData>(
+      `SELECT "seq", "samples", "times" FROM trace_chunk_data WHERE "traceId" = ? AND "seq" IN (${seqs.map(() => '?').join(', ')}) ORDER BY "seq"`,
+      [traceId, ...seqs],
+    );
+  }
+
   async readEnvelopes(traceId: string, fromSeq: number, toSeq: number, withTimes: boolean): Promise<ChunkEnvelope[]> {
     return this.query<ChunkEnvelope>(
       `SELECT "seq", "envelope", ${withTimes ? '"times"' : 'NULL AS "times"'} FROM trace_chunk_data

@@ -8,9 +8,9 @@
 import { mergeSummaryList } from '../analysis/stats/merge-summaries.js';
 import { summarise, type SampleSummary } from '../analysis/stats/sample-summary.js';
 import { CachedChunkStore, rowRange } from './cached-chunk-store.js';
-import { chunkAxis, chunkInside, decodeChunk, indexRangeInWindow } from './chunk-reader.js';
+import { chunkAxis, chunkInside, decodeChunk, indexRangeInWindow, readEdgeData } from './chunk-reader.js';
 import { SummaryTree } from './summary-tree.js';
-import type { ChunkStore } from './chunk-store.js';
+import type { ChunkData, ChunkStore } from './chunk-store.js';
 import { summaryOfRow, type ChunkSummaryRow } from './summary-rows.js';
 
 /** Storage facts of a trace a window query needs. */
@@ -44,19 +44,17 @@ export async function windowSummary(store: ChunkStore, trace: StoredTrace, fromU
   const last = rows[to - 1] as ChunkSummaryRow;
   const partFirst = !chunkInside(first, fromUs, toUs);
   const partLast = to - 1 > from && !chunkInside(last, fromUs, toUs);
-  const [head, tail] = await Promise.all([
-    partFirst ? partialSummary(store, trace, first, fromUs, toUs) : null,
-    partLast ? partialSummary(store, trace, last, fromUs, toUs) : null,
-  ]);
+  const edges = [...(partFirst ? [first] : []), ...(partLast ? [last] : [])];
+  const data = await readEdgeData(store, trace.traceId, edges);
+  const head = partFirst ? partialSummary(trace, first, data.get(first.seq) as ChunkData, fromUs, toUs) : null;
+  const tail = partLast ? partialSummary(trace, last, data.get(last.seq) as ChunkData, fromUs, toUs) : null;
   const middle = tree.query(from + (partFirst ? 1 : 0), to - (partLast ? 1 : 0));
   const pieces = [head, middle, tail].filter((p): p is SampleSummary => p !== null);
   return pieces.length === 0 ? null : mergeSummaryList(pieces);
 }
 
 /** Summary of the samples of one chunk that lie in the window, from its samples; null when none do. */
-async function partialSummary(store: ChunkStore, trace: StoredTrace, row: ChunkSummaryRow, fromUs: number, toUs: number): Promise<SampleSummary | null> {
-  const [data] = await store.readData(trace.traceId, row.seq, row.seq);
-  if (!data) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no data`);
+function partialSummary(trace: StoredTrace, row: ChunkSummaryRow, data: ChunkData, fromUs: number, toUs: number): SampleSummary | null {
   const chunk = decodeChunk(row, data);
   const { from, to } = indexRangeInWindow(chunk, fromUs, toUs);
   return from < to ? summarise(chunkAxis(chunk, trace.originUs as number), chunk.values, from, to, { gapThresholdS: trace.gapThresholdS }) : null;
@@ -71,9 +69,10 @@ export async function summariseRows(
   toUs: number,
 ): Promise<SampleSummary | null> {
   const pieces: SampleSummary[] = [];
+  // Only the first and last chunk of a window can be partly outside it.
+  const data = await readEdgeData(store, trace.traceId, rows.filter((row) => !chunkInside(row, fromUs, toUs)));
   for (const row of rows) {
-    // Only the first and last chunk of a window can be partly outside it.
-    const piece = chunkInside(row, fromUs, toUs) ? summaryOfRow(row, trace.gapThresholdS) : await partialSummary(store, trace, row, fromUs, toUs);
+    const piece = chunkInside(row, fromUs, toUs) ? summaryOfRow(row, trace.gapThresholdS) : partialSummary(trace, row, data.get(row.seq) as ChunkData, fromUs, toUs);
     if (piece) pieces.push(piece);
   }
   return pieces.length === 0 ? null : mergeSummaryList(pieces);
