@@ -1412,17 +1412,30 @@ export interface components {
             rmsSeriesLength: number;
             rmsSeriesMethod: string | null;
             /** @description Peak, RMS, DC, crest and form factor of a waveform; null for rms traces */
-            waveform: {
-                [key: string]: unknown;
-            } | null;
+            waveform: components["schemas"]["WaveformFigures"] | null;
             statistics: components["schemas"]["TraceStatistics"] & unknown;
             inrushEvents: components["schemas"]["InrushEvent"][];
             surges: components["schemas"]["Surge"][];
             onPeriodCount: number;
-            /** @description Every parameter used, defaults included */
-            params: {
-                [key: string]: unknown;
-            };
+            /** @description True when more than params.events.maxEvents inrush events or surges were found and the lists were cut */
+            eventsTruncated: boolean;
+            params: components["schemas"]["AnalyzeParamsUsed"];
+        };
+        WaveformFigures: {
+            /** @description Peak: the largest |i| (A) */
+            peakA: number;
+            /** @description Time of the first sample reaching the peak, epoch ms */
+            peakAt: number;
+            /** @description RMS: √(mean of i²) (A) */
+            rmsA: number;
+            /** @description DC: the mean of i (A) */
+            dcA: number;
+            /** @description Rectified mean: the mean of |i| (A) */
+            rectifiedMeanA: number;
+            /** @description Peak / RMS (√2 for a sine); null when the RMS is 0 */
+            crestFactor: number | null;
+            /** @description RMS / rectified mean (π / (2√2) for a sine); null when the rectified mean is 0 */
+            formFactor: number | null;
         };
         InrushEvent: {
             /** @description Switch-on time, epoch ms */
@@ -1451,6 +1464,44 @@ export interface components {
             i2tA2s: number;
         } & {
             [key: string]: unknown;
+        };
+        /** @description Every parameter the analysis used, defaults included */
+        AnalyzeParamsUsed: {
+            probe: components["schemas"]["Probe"];
+            /** @description Mains frequency used for a waveform (Hz); null for rms traces */
+            mainsFrequencyHz: number | null;
+            /** @enum {string|null} */
+            mainsFrequencySource: "given" | "estimated" | null;
+            nominalVoltageV: number | null;
+            powerFactor: number;
+            thresholdsA: number[];
+            gapFactor: number;
+            events: components["schemas"]["EventParamsUsed"];
+        };
+        /** @description Every event parameter used (see EventParams), defaults included, with the levels it resolved to */
+        EventParamsUsed: {
+            /** @description On-threshold used (A): given, or derived from the trace */
+            onThresholdA: number;
+            /** @description Off-threshold used (A), below the on-threshold by the hysteresis */
+            offThresholdA: number;
+            /** @description Lowest value of the RMS series (A) */
+            baselineA: number;
+            /** @description Median of the values more than onFloorA above the baseline (A); null when there are none */
+            runningLevelA: number | null;
+            /** @enum {string} */
+            onThresholdSource: "given" | "derived";
+            onFloorA: number;
+            onFraction: number;
+            hysteresisFraction: number;
+            maxInrushS: number;
+            settleTolerance: number;
+            settleHoldS: number;
+            firstCycles: number;
+            surgeThresholdFraction: number;
+            surgeFloorA: number;
+            surgeMinDurationS: number;
+            /** @description Most inrush events and most surges listed */
+            maxEvents: number;
         };
         TraceStats: {
             /**

@@ -4,6 +4,7 @@ import { fileURLToPath } from 'node:url';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
+import { AnalyzeResponse, AnalyzeParamsUsed, WaveformFigures } from './schemas/analyze.js';
 
 const UCI = path.resolve(
   path.dirname(fileURLToPath(import.meta.url)),
@@ -47,6 +48,10 @@ describe('POST /api/v1/analyze', () => {
     expect(res.body.rmsSeriesLength).toBeLessThanOrEqual(120);
     expect(res.body.firstAt).toBe(Date.parse('2026-01-05T08:00:00.000Z'));
     expect(res.body.params.mainsFrequencySource).toBe('given');
+    // The answer is what openapi.yaml says, field for field (the SDK's types come from it).
+    expect(AnalyzeResponse.safeParse(res.body).error).toBeUndefined();
+    expect(WaveformFigures.safeParse(res.body.waveform).error).toBeUndefined();
+    expect(AnalyzeParamsUsed.safeParse(res.body.params).error).toBeUndefined();
   });
 
   it('when a probe reads 10 mV/A through a x10 loop, then readings are scaled to amperes', async () => {
@@ -138,6 +143,9 @@ describe('POST /api/v1/analyze', () => {
     expect(res.status).toBe(200);
     expect(res.body.params.events.settleTolerance).toBe(0.2);
     expect(res.body.params.events.onThresholdA).toBe(2);
+    expect(res.body.params.events.onThresholdSource).toBe('given');
+    expect(AnalyzeParamsUsed.safeParse(res.body.params).error).toBeUndefined();
+    expect(res.body.eventsTruncated).toBe(false);
     expect(res.body.inrushEvents).toHaveLength(1);
     expect(res.body.inrushEvents[0].peakA).toBe(30);
     expect(res.body.inrushEvents[0].onsetAt).toBe(200);

@@ -110,6 +110,55 @@ export const Surge = z
   .catchall(z.unknown())
   .openapi('Surge');
 
+export const WaveformFigures = z
+  .object({
+    peakA: z.number().openapi({ description: 'Peak: the largest |i| (A)' }),
+    peakAt: z.number().openapi({ description: 'Time of the first sample reaching the peak, epoch ms' }),
+    rmsA: z.number().openapi({ description: 'RMS: √(mean of i²) (A)' }),
+    dcA: z.number().openapi({ description: 'DC: the mean of i (A)' }),
+    rectifiedMeanA: z.number().openapi({ description: 'Rectified mean: the mean of |i| (A)' }),
+    crestFactor: z.number().nullable().openapi({ description: 'Peak / RMS (√2 for a sine); null when the RMS is 0' }),
+    formFactor: z.number().nullable().openapi({ description: 'RMS / rectified mean (π / (2√2) for a sine); null when the rectified mean is 0' }),
+  })
+  .strict()
+  .openapi('WaveformFigures');
+
+export const EventParamsUsed = z
+  .object({
+    onThresholdA: z.number().openapi({ description: 'On-threshold used (A): given, or derived from the trace' }),
+    offThresholdA: z.number().openapi({ description: 'Off-threshold used (A), below the on-threshold by the hysteresis' }),
+    baselineA: z.number().openapi({ description: 'Lowest value of the RMS series (A)' }),
+    runningLevelA: z.number().nullable().openapi({ description: 'Median of the values more than onFloorA above the baseline (A); null when there are none' }),
+    onThresholdSource: z.enum(['given', 'derived']),
+    onFloorA: z.number(),
+    onFraction: z.number(),
+    hysteresisFraction: z.number(),
+    maxInrushS: z.number(),
+    settleTolerance: z.number(),
+    settleHoldS: z.number(),
+    firstCycles: z.number().int(),
+    surgeThresholdFraction: z.number(),
+    surgeFloorA: z.number(),
+    surgeMinDurationS: z.number(),
+    maxEvents: z.number().int().openapi({ description: 'Most inrush events and most surges listed' }),
+  })
+  .strict()
+  .openapi('EventParamsUsed', { description: 'Every event parameter used (see EventParams), defaults included, with the levels it resolved to' });
+
+export const AnalyzeParamsUsed = z
+  .object({
+    probe: Probe,
+    mainsFrequencyHz: z.number().nullable().openapi({ description: 'Mains frequency used for a waveform (Hz); null for rms traces' }),
+    mainsFrequencySource: z.enum(['given', 'estimated']).nullable(),
+    nominalVoltageV: z.number().nullable(),
+    powerFactor: z.number(),
+    thresholdsA: z.array(z.number()),
+    gapFactor: z.number(),
+    events: EventParamsUsed,
+  })
+  .strict()
+  .openapi('AnalyzeParamsUsed', { description: 'Every parameter the analysis used, defaults included' });
+
 export const AnalyzeResponse = z
   .object({
     kind: z.enum(['rms', 'waveform']),
@@ -118,11 +167,12 @@ export const AnalyzeResponse = z
     lastAt: z.number().openapi({ description: 'Time of the last sample, epoch ms' }),
     rmsSeriesLength: z.number().int(),
     rmsSeriesMethod: z.string().nullable(),
-    waveform: z.record(z.string(), z.unknown()).nullable().openapi({ description: 'Peak, RMS, DC, crest and form factor of a waveform; null for rms traces' }),
+    waveform: z.union([WaveformFigures, z.null()]).openapi({ description: 'Peak, RMS, DC, crest and form factor of a waveform; null for rms traces' }),
     statistics: Statistics.openapi({ description: 'Statistics of the RMS series (see README "What Headroom computes")' }),
     inrushEvents: z.array(InrushEvent),
     surges: z.array(Surge),
     onPeriodCount: z.number().int(),
-    params: z.record(z.string(), z.unknown()).openapi({ description: 'Every parameter used, defaults included' }),
+    eventsTruncated: z.boolean().openapi({ description: 'True when more than params.events.maxEvents inrush events or surges were found and the lists were cut' }),
+    params: AnalyzeParamsUsed,
   })
   .openapi('AnalyzeResponse');
