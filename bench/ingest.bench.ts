@@ -98,26 +98,26 @@ function binaryBatch(n: number, phase: number): Buffer {
 const timeOf = (index: number) => T0 + index * 1.25;
 const valueOf = (index: number) => Math.round((8 + 4 * Math.sin(index / 900)) * 100) / 100;
 
-function jsonTaBatch(batch: number, n: number): string {
+function jsonTaBatch(batch: number, n: number): Buffer {
   const t: number[] = [];
   const a: number[] = [];
   for (let i = 0; i < n; i++) {
     t.push(timeOf(batch * n + i));
     a.push(valueOf(batch * n + i));
   }
-  return JSON.stringify({ t, a });
+  return Buffer.from(JSON.stringify({ t, a }));
 }
 
-function csvBatch(batch: number, n: number): string {
+function csvBatch(batch: number, n: number): Buffer {
   const lines = ['time_ms,current_A'];
   for (let i = 0; i < n; i++) lines.push(`${timeOf(batch * n + i)},${valueOf(batch * n + i)}`);
-  return lines.join('\n') + '\n';
+  return Buffer.from(lines.join('\n') + '\n');
 }
 
-function ndjsonBatch(batch: number, n: number): string {
+function ndjsonBatch(batch: number, n: number): Buffer {
   const lines: string[] = [];
   for (let i = 0; i < n; i++) lines.push(`{"t":${timeOf(batch * n + i)},"a":${valueOf(batch * n + i)}}`);
-  return lines.join('\n') + '\n';
+  return Buffer.from(lines.join('\n') + '\n');
 }
 
 // ---------------------------------------------------------------- 1. ingest rates
@@ -128,8 +128,8 @@ interface Format {
   batchesPerWorker: number;
   contentType: string;
   traceExtra: Record<string, unknown>;
-  /** Body of batch b (0 = warm-up) for worker w; query string. */
-  body(worker: number, batch: number): Buffer | string;
+  /** Body of batch b (0 = warm-up) for worker w, as bytes (the client's own text encoding is not the server's speed); query string. */
+  body(worker: number, batch: number): Buffer;
   query(batch: number): string;
   target: number;
 }
@@ -165,7 +165,7 @@ const FORMATS: Format[] = [
     contentType: 'application/json',
     traceExtra: { sampleRateHz: 1000 },
     body: (() => {
-      const shared = JSON.stringify({ values: Array.from({ length: 10_000 }, (_, i) => valueOf(i)) });
+      const shared = Buffer.from(JSON.stringify({ values: Array.from({ length: 10_000 }, (_, i) => valueOf(i)) }));
       return () => shared;
     })(),
     query: () => '',
@@ -195,19 +195,17 @@ const FORMATS: Format[] = [
 
 /** Samples per second of WORKERS connections each posting `format`'s batches, to its own trace or to `url`. */
 async function ingestRate(format: Format, url?: string): Promise<number> {
-  const traces: string[] = [];
-  for (let w = 0; w < WORKERS; w++) traces.push(url ? '' : await newTrace(`${format.name} #${w}`, format.traceExtra));
-  const target = (id: string, b: number) => url ?? `/traces/${id}/samples${format.query(b)}`;
-  // Bodies first, as bytes (not timed: the client's own text encoding is not the server's speed); batch 0 is the warm-up.
-  const bytes = new Map<Buffer | string, Buffer>();
-  const asBytes = (body: Buffer | string) => (typeof body === 'string' ? (bytes.get(body) ?? bytes.set(body, Buffer.from(body)).get(body)!) : body);
-  const bodies = traces.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => asBytes(format.body(w, b))));
+  const urls: string[] = [];
+  for (let w = 0; w < WORKERS; w++) urls.push(url ?? `/traces/${await newTrace(`${format.name} #${w}`, format.traceExtra)}/samples`);
+  const target = (w: number, b: number) => url ?? `${urls[w]}${format.query(b)}`;
+  // Bodies first (not timed); batch 0 is the warm-up.
+  const bodies = urls.map((_, w) => Array.from({ length: format.batchesPerWorker + 1 }, (_, b) => format.body(w, b)));
   freshConnections();
-  await Promise.all(traces.map((id, w) => ok('POST', target(id, 0), bodies[w]![0], format.contentType)));
+  await Promise.all(urls.map((_, w) => ok('POST', target(w, 0), bodies[w]![0], format.contentType)));
   const started = performance.now();
   await Promise.all(
-    traces.map(async (id, w) => {
-      for (let b = 1; b <= format.batchesPerWorker; b++) await ok('POST', target(id, b), bodies[w]![b], format.contentType);
+    urls.map(async (_, w) => {
+      for (let b = 1; b <= format.batchesPerWorker; b++) await ok('POST', target(w, b), bodies[w]![b], format.contentType);
     }),
   );
   const seconds = (performance.now() - started) / 1000;
