@@ -2,6 +2,7 @@ import type { Database as SqliteDatabase } from 'sqlite3';
 import { Sequelize } from 'sequelize';
 import { initModels, type Models } from '../models/index.js';
 import { migrate } from './migrate.js';
+import { SQLITE_PRAGMAS } from './sqlite-pragmas.js';
 
 export interface Db {
   sequelize: Sequelize;
@@ -21,8 +22,6 @@ export interface DbOptions {
   migrate?: boolean;
 }
 
-/** Pragmas every SQLite connection needs (Sequelize opens one per transaction on file databases). */
-const SQLITE_PRAGMAS = ['PRAGMA busy_timeout = 10000', 'PRAGMA synchronous = NORMAL', 'PRAGMA foreign_keys = ON'];
 
 function runSql(conn: SqliteDatabase, sql: string): Promise<void> {
   return new Promise((resolve, reject) => conn.run(sql, (err) => (err ? reject(err) : resolve())));
@@ -40,7 +39,7 @@ export async function openDatabase(options: DbOptions): Promise<Db> {
 
   if (sequelize.getDialect() === 'sqlite') {
     // Sequelize's sqlite dialect opens a fresh connection per transaction and does not run connect
-    // hooks, so wrap getConnection to configure every new connection once.
+    // hooks, so wrap getConnection to configure every new connection once (db/sqlite-pragmas.ts).
     const manager = sequelize.connectionManager as unknown as {
       getConnection(opts?: unknown): Promise<SqliteDatabase>;
     };

@@ -1,17 +1,17 @@
 /**
- * Chunk store on SQLite through the raw sqlite3 connections of Sequelize's connection manager.
+ * Chunk store on SQLite through raw sqlite3 connections.
  *
  * Why not the models: every statement through the sqlite3 package is a round trip to its worker
  * thread, and a Sequelize transaction on a file database opens a fresh connection (~2.5 ms), which
  * caps ingest far below the product's targets (bench/ingest.bench.ts). So, on a file database:
- * - writes go through one dedicated connection (`headroom-chunk-writer`), one transaction at a time
- *   (a promise queue), BEGIN IMMEDIATE … COMMIT, with multi-row INSERTs bound as parameters;
- * - reads go through another (`headroom-chunk-reader`), which in WAL mode sees only committed data;
+ * - writes go through one connection on a thread of its own (storage/sqlite-writer.ts), one
+ *   transaction at a time, BEGIN IMMEDIATE … COMMIT, with multi-row INSERTs bound as parameters;
+ * - reads go through a dedicated connection of Sequelize's connection manager
+ *   (`headroom-chunk-reader`), which in WAL mode sees only committed data;
  * - both use prepared statements, kept and reused (db/prepared-statements.ts): one trip to the worker
- *   thread per statement instead of three. A write transaction is a handful of trips, and each waits
- *   for the event loop, so the number of trips is what limits how many batches commit per second.
- * Both get the same pragmas as every connection (db/open.ts). Nothing inside a write transaction waits
- * for a Sequelize query, so the two can never wait for each other's lock.
+ *   thread per statement instead of three.
+ * Every connection gets the same pragmas (db/sqlite-pragmas.ts). Nothing inside a write transaction
+ * waits for a Sequelize query, so the two can never wait for each other's lock.
  *
  * Checkpoints: SQLite copies the WAL back into the database file (and syncs it) inside whichever
  * COMMIT passes 1,000 pages — on a busy disk that COMMIT takes 100 ms or more. The writer connection
@@ -26,15 +26,11 @@ import type { Sequelize } from 'sequelize';
 import { PreparedStatements, type SqlParam } from '../db/prepared-statements.js';
 import type { Db } from '../db/open.js';
 import type { BatchCommit, ChunkData, ChunkEnvelope, ChunkStore, IdempotencyRecord, StoredChunk } from './chunk-store.js';
+import { changesAccepted, type Stage, type Statement } from './sqlite-transaction.js';
+import { SqliteWriter } from './sqlite-writer.js';
 import { SUMMARY_COLUMNS, type ChunkSummaryRow } from './summary-rows.js';
 
 type Param = SqlParam;
-type Statement = [sql: string, params: Param[]];
-/** Statements run together, and an optional check of their change counts (false: roll back). */
-interface Stage {
-  statements: Statement[];
-  check?: (changes: number[]) => boolean;
-}
 
 const SUMMARY_INSERT_COLUMNS = ['traceId', 'seq', 'organisationId', ...SUMMARY_COLUMNS];
 const DATA_INSERT_COLUMNS = ['traceId', 'seq', 'envelope', 'times', 'samples'];
@@ -92,15 +88,6 @@ function pipeline(conn: SqliteDatabase, statements: Statement[]): Promise<number
   });
 }
 
-/** Runs each stage's statements with `runStatements`; false as soon as a stage's check refuses its change counts. */
-async function runStages(stages: Stage[], runStatements: (statements: Statement[]) => Promise<number[]>): Promise<boolean> {
-  for (const stage of stages) {
-    const changes = await runStatements(stage.statements);
-    if (stage.check && !stage.check(changes)) return false;
-  }
-  return true;
-}
-
 function all<T>(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<T[]> {
   return new Promise((resolve, reject) => {
     conn.all(sql, params, (err: Error | null, rows: T[]) => (err ? reject(err) : resolve(rows)));
@@ -113,11 +100,12 @@ interface ConnectionManager {
 
 export class SqliteChunkStore implements ChunkStore {
   private readonly inMemory: boolean;
+  /** The writer thread, on a file database. */
+  private readonly writer: SqliteWriter | null;
   private readonly manager: ConnectionManager;
-  /** Tail of the queue of write transactions on the writer connection. */
+  /** Tail of the queue of write transactions in memory. */
   private writeQueue: Promise<unknown> = Promise.resolve();
   private readonly sqlCache = new Map<string, string>();
-  private writerReady = false;
   private bytesSinceCheckpoint = 0;
   private checkpointing = false;
   private readonly prepared = new PreparedStatements();
@@ -125,9 +113,14 @@ export class SqliteChunkStore implements ChunkStore {
 
   constructor(db: Pick<Db, 'sequelize' | 'onClose'>) {
     this.sequelize = db.sequelize;
-    this.inMemory = (db.sequelize as unknown as { options: { storage?: string } }).options.storage === ':memory:';
+    const file = (db.sequelize as unknown as { options: { storage?: string } }).options.storage ?? ':memory:';
+    this.inMemory = file === ':memory:';
+    this.writer = this.inMemory ? null : new SqliteWriter(file);
     this.manager = db.sequelize.connectionManager as unknown as ConnectionManager;
-    db.onClose(() => this.prepared.finalizeAll());
+    db.onClose(async () => {
+      await this.writer?.close();
+      await this.prepared.finalizeAll();
+    });
   }
 
   /** Rows of a read: through a kept prepared statement on a file database (the in-memory one is short-lived). */
@@ -141,52 +134,35 @@ export class SqliteChunkStore implements ChunkStore {
   }
 
   /**
-   * Runs the stages in one write transaction, after every earlier transaction has finished: BEGIN
-   * IMMEDIATE (the statement that waits for the write lock), then each stage's statements one after the
-   * other, then COMMIT — or ROLLBACK when a statement fails or a stage's check refuses its change
-   * counts. Returns whether it committed. No statement runs after one that failed.
+   * Runs the stages in one write transaction, after every earlier one has finished (runTransaction in
+   * storage/sqlite-transaction.ts, on the writer thread). Returns whether it committed: false when a
+   * stage's change counts are not the expected ones, and then nothing was written.
    *
    * In memory (tests), a stage's statements are queued at once on the single connection instead
-   * (serialize mode); there a stage holds one statement that matters and, after it, only statements
-   * harmless on their own (inserts of new chunks at places no reader sees).
+   * (serialize mode), inside `sequelize.transaction()`, which rolls them all back when a stage's change
+   * counts are refused.
    */
-  private transact(stages: Stage[]): Promise<boolean> {
+  private async transact(stages: Stage[]): Promise<boolean> {
+    if (!this.writer) return this.transactInMemory(stages);
+    const committed = await this.writer.transact(stages);
+    if (committed) this.wrote(stages);
+    return committed;
+  }
+
+  /** The in-memory transaction: one at a time, inside `sequelize.transaction()` on its single connection. */
+  private transactInMemory(stages: Stage[]): Promise<boolean> {
     const next = this.writeQueue.then(async () => {
-      if (this.inMemory) {
-        const refused = new Error('refused');
-        try {
-          await this.sequelize.transaction(async (transaction) => {
-            const conn = (transaction as unknown as { connection: SqliteDatabase }).connection;
-            if (!(await runStages(stages, (statements) => pipeline(conn, statements)))) throw refused;
-          });
-          return true;
-        } catch (err) {
-          if (err === refused) return false;
-          throw err;
-        }
-      }
-      const conn = await this.manager.getConnection({ uuid: 'headroom-chunk-writer' });
-      if (!this.writerReady) {
-        await run(conn, 'PRAGMA wal_autocheckpoint = 0');
-        this.writerReady = true;
-      }
-      const oneByOne = async (statements: Statement[]): Promise<number[]> => {
-        const changes: number[] = [];
-        for (const [sql, params] of statements) changes.push(await this.prepared.run(conn, sql, params));
-        return changes;
-      };
-      await this.prepared.run(conn, 'BEGIN IMMEDIATE');
-      let committed = false;
+      const refused = new Error('refused');
       try {
-        if (await runStages(stages, oneByOne)) {
-          await this.prepared.run(conn, 'COMMIT');
-          committed = true;
-        }
-      } finally {
-        if (!committed) await this.prepared.run(conn, 'ROLLBACK').catch(() => undefined);
+        await this.sequelize.transaction(async (transaction) => {
+          const conn = (transaction as unknown as { connection: SqliteDatabase }).connection;
+          for (const stage of stages) if (!changesAccepted(stage, await pipeline(conn, stage.statements))) throw refused;
+        });
+        return true;
+      } catch (err) {
+        if (err === refused) return false;
+        throw err;
       }
-      if (committed) this.wrote(stages);
-      return committed;
     });
     this.writeQueue = next.catch(() => undefined);
     return next;
@@ -209,21 +185,33 @@ export class SqliteChunkStore implements ChunkStore {
       });
   }
 
-  private cachedInsertSql(table: string, columns: readonly string[], rows: number): string {
-    const key = `${table}:${rows}`;
+  private cachedInsertSql(table: string, columns: readonly string[], rows: number, upsert: boolean): string {
+    const key = `${table}:${rows}:${upsert}`;
     let sql = this.sqlCache.get(key);
     if (!sql) {
       sql = insertSql(table, columns, rows);
+      // The batch's first row may be the trace's last committed chunk, topped up: that one row (and no
+      // other, the WHERE) replaces the stored one. A row that collides otherwise is neither inserted nor
+      // updated, so the statement's change count falls short and the batch is rolled back.
+      if (upsert) {
+        const updated = columns.filter((c) => !['traceId', 'seq', 'organisationId'].includes(c));
+        sql += ` ON CONFLICT ("traceId", "seq") DO UPDATE SET ${updated.map((c) => `"${c}" = excluded."${c}"`).join(', ')} WHERE excluded."seq" = ?`;
+      }
       this.sqlCache.set(key, sql);
     }
     return sql;
   }
 
-  /** INSERT statements for chunks (two tables, up to ROWS_PER_INSERT rows each). */
-  private insertChunks(traceId: string, organisationId: string, chunks: StoredChunk[]): Statement[] {
+  /**
+   * INSERT statements for chunks (two tables, up to ROWS_PER_INSERT rows each), with the number of
+   * rows each must change. `replacing`: the chunk's seq that may already be stored and is replaced.
+   */
+  private insertChunks(traceId: string, organisationId: string, chunks: StoredChunk[], replacing: number | null = null): { statements: Statement[]; rows: number[] } {
     const statements: Statement[] = [];
+    const rows: number[] = [];
     for (let start = 0; start < chunks.length; start += ROWS_PER_INSERT) {
       const group = chunks.slice(start, start + ROWS_PER_INSERT);
+      const upsert = start === 0 && replacing !== null;
       const summaryParams: Param[] = [];
       const dataParams: Param[] = [];
       for (const c of group) {
@@ -231,24 +219,35 @@ export class SqliteChunkStore implements ChunkStore {
         for (const column of SUMMARY_COLUMNS) summaryParams.push(c.row[column]);
         dataParams.push(traceId, c.row.seq, c.envelope, c.times, c.samples);
       }
-      statements.push([this.cachedInsertSql('trace_chunks', SUMMARY_INSERT_COLUMNS, group.length), summaryParams]);
-      statements.push([this.cachedInsertSql('trace_chunk_data', DATA_INSERT_COLUMNS, group.length), dataParams]);
+      if (upsert) {
+        summaryParams.push(replacing);
+        dataParams.push(replacing);
+      }
+      statements.push([this.cachedInsertSql('trace_chunks', SUMMARY_INSERT_COLUMNS, group.length, upsert), summaryParams]);
+      statements.push([this.cachedInsertSql('trace_chunk_data', DATA_INSERT_COLUMNS, group.length, upsert), dataParams]);
+      rows.push(group.length, group.length);
     }
-    return statements;
+    return { statements, rows };
   }
 
   async insertPending(traceId: string, organisationId: string, chunks: StoredChunk[]): Promise<void> {
     if (chunks.length === 0) return;
-    await this.transact([{ statements: this.insertChunks(traceId, organisationId, chunks) }]);
+    await this.transact([{ statements: this.insertChunks(traceId, organisationId, chunks).statements }]);
   }
 
   commit(batch: BatchCommit): Promise<boolean> {
     const s = batch.state;
+    const c = batch.replaceLast;
+    // The replaced last chunk (topped up by this batch) goes first, in the same INSERTs as the new ones.
+    const chunks = c ? [c, ...batch.chunks] : batch.chunks;
+    const inserts = this.insertChunks(batch.traceId, batch.organisationId, chunks, c ? c.row.seq : null);
     const stages: Stage[] = [
       {
-        // The conditional UPDATE first, then the new chunks (places no reader sees until chunkCount is
-        // raised): should SQLite abandon the transaction on a disk error, whatever runs after it here
-        // outside the transaction is such a chunk, which nothing reads.
+        // The conditional UPDATE first, then the chunks (new ones at places no reader sees until
+        // chunkCount is raised): should SQLite abandon the transaction on a disk error, whatever runs
+        // after it here outside the transaction is such a chunk, which nothing reads. Each statement is
+        // one trip to the sqlite3 worker thread and back through the event loop, so there are as few as
+        // can be: the trace row, then one INSERT per table.
         statements: [
           [
             `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
@@ -260,20 +259,11 @@ export class SqliteChunkStore implements ChunkStore {
               batch.traceId, batch.organisationId, batch.expectedChunkCount,
             ],
           ],
-          ...this.insertChunks(batch.traceId, batch.organisationId, batch.chunks),
+          ...inserts.statements,
         ],
-        check: (changes) => changes[0] === 1,
+        expectChanges: [1, ...inserts.rows],
       },
     ];
-    const c = batch.replaceLast;
-    if (c) {
-      stages.push({
-        statements: [[`UPDATE trace_chunks SET ${SUMMARY_COLUMNS.map((n) => `"${n}" = ?`).join(', ')} WHERE "traceId" = ? AND "seq" = ?`, [...SUMMARY_COLUMNS.map((n) => c.row[n]), batch.traceId, c.row.seq]]],
-      });
-      stages.push({
-        statements: [['UPDATE trace_chunk_data SET "envelope" = ?, "times" = ?, "samples" = ? WHERE "traceId" = ? AND "seq" = ?', [c.envelope, c.times, c.samples, batch.traceId, c.row.seq]]],
-      });
-    }
     if (batch.idempotency) stages.push({ statements: [idempotencyInsert(batch.idempotency)] });
     return this.transact(stages);
   }

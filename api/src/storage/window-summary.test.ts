@@ -1,4 +1,7 @@
 import fc from 'fast-check';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { summarise } from '../analysis/stats/sample-summary.js';
 import { explicitTimeAxis, uniformTimeAxis } from '../analysis/time/time-axis.js';
@@ -40,17 +43,24 @@ function makeSeries(n: number, seed: number) {
 }
 
 describe.each([
-  ['sqlite', (db: Db) => new SqliteChunkStore(db)],
-  ['sequelize', (db: Db) => new SequelizeChunkStore(db)],
-  ['cached sqlite', (db: Db) => new CachedChunkStore(new SqliteChunkStore(db))],
-] as const)('window statistics from chunk summaries (%s store)', (_name, makeStore) => {
+  ['sqlite', (db: Db) => new SqliteChunkStore(db), ':memory:'],
+  // On a database file the writes run on the writer thread (storage/sqlite-writer.ts).
+  ['sqlite file', (db: Db) => new SqliteChunkStore(db), 'file'],
+  ['sequelize', (db: Db) => new SequelizeChunkStore(db), ':memory:'],
+  ['cached sqlite', (db: Db) => new CachedChunkStore(new SqliteChunkStore(db)), ':memory:'],
+] as const)('window statistics from chunk summaries (%s store)', (_name, makeStore, where) => {
   let db: Db;
   let store: ChunkStore;
+  let dir: string | undefined;
   beforeAll(async () => {
-    db = await openDatabase({ databaseFile: ':memory:' });
+    dir = where === 'file' ? mkdtempSync(path.join(tmpdir(), 'headroom-window-summary-')) : undefined;
+    db = await openDatabase({ databaseFile: dir ? path.join(dir, 'test.sqlite') : ':memory:' });
     store = makeStore(db);
   });
-  afterAll(() => db.close());
+  afterAll(async () => {
+    await db.close();
+    if (dir) rmSync(dir, { recursive: true, force: true });
+  });
 
   it('when any window is asked, then the assembled summary equals the direct computation, and the envelope bounds every sample', async () => {
     // source: the merge is exact by construction (Chan et al. 1983); the reference is the analysis engine's direct summarise.
