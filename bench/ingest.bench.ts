@@ -9,8 +9,8 @@
  *    INGEST_FORMATS=json (a part of the format names) runs only those formats, and only this section.
  * 2. Query latency on a 10,000,000-sample trace and on a 100-sample trace: `series?points=1000` of the
  *    whole range and of a 1 % window at a random place, and `stats` of a random window (medians and
- *    p95 of QUERY_RUNS sequential requests after warm-up, request sent to last byte received), with
- *    the 10M / 100 ratio.
+ *    p95 of QUERY_RUNS sequential requests after warm-up, request sent to last byte received, the two
+ *    traces in turns of 10 requests), with the 10M / 100 ratio.
  * 3. Peak RSS of a fresh server process while one request streams 100,000,000 float32 samples (400 MB),
  *    sampled from /proc every 20 ms.
  * Targets (issue 4): binary ≥ 10 M samples/s, JSON ≥ 5 M/s, CSV and NDJSON ≥ 1 M/s; series and stats
@@ -28,7 +28,7 @@ import { createServices } from '../api/src/services/index.js';
 import { ServerProcess, freePort, sleep } from '../api/test/stress/support/server-process.js';
 
 const WORKERS = Number(process.env.INGEST_WORKERS ?? 4);
-const QUERY_RUNS = Number(process.env.INGEST_QUERY_RUNS ?? 40);
+const QUERY_RUNS = Number(process.env.INGEST_QUERY_RUNS ?? 100);
 /** Untimed batches each connection sends first in each format, after the server's warm-up of WARMUP_SECONDS. */
 const WARMUP_BATCHES = 5;
 const WARMUP_SECONDS = 3;
@@ -267,36 +267,59 @@ async function jsonFloorRate(format: Format): Promise<number> {
 
 // ---------------------------------------------------------------- 2. query latency
 
-/**
- * Latency of GET requests: from sending the request to the last byte of the answer, as HTTP load tools
- * measure it. The answer is checked (status, and that it is JSON) after the clock stops: parsing it is
- * the client's work, not the server's.
- */
-async function latency(url: () => string): Promise<{ median: number; p95: number }> {
-  freshConnections();
-  for (let i = 0; i < 5; i++) await ok('GET', url());
-  const ms: number[] = [];
-  for (let i = 0; i < QUERY_RUNS; i++) {
-    const u = url();
-    const t0 = performance.now();
-    const res = await send('GET', u);
-    ms.push(performance.now() - t0);
-    if (res.status !== 200) throw new Error(`GET ${u}: ${res.status} ${res.text.slice(0, 500)}`);
-    JSON.parse(res.text);
-  }
-  return { median: median(ms), p95: p95(ms) };
+interface Latency {
+  median: number;
+  p95: number;
 }
 
-async function queryFigures(id: string, firstMs: number, lastMs: number) {
-  const span = lastMs - firstMs;
-  const random = (fraction: number) => {
-    const from = firstMs + Math.random() * span * (1 - fraction);
+/** Time of one GET (ms): from sending the request to the last byte of the answer, as HTTP load tools measure it. */
+async function timedGet(u: string): Promise<number> {
+  const t0 = performance.now();
+  const res = await send('GET', u);
+  const ms = performance.now() - t0;
+  // Checked after the clock stops: parsing the answer is the client's work, not the server's.
+  if (res.status !== 200) throw new Error(`GET ${u}: ${res.status} ${res.text.slice(0, 500)}`);
+  JSON.parse(res.text);
+  return ms;
+}
+
+/**
+ * Latency of the same query on the big and the small trace, QUERY_RUNS sequential requests each after
+ * warm-up, taken in turns of 10 (10 big, 10 small, …) so that a slow spell of the machine weighs on
+ * both alike, while few requests follow one on the other trace.
+ */
+async function latencyPair(big: () => string, small: () => string): Promise<{ big: Latency; small: Latency }> {
+  freshConnections();
+  for (let i = 0; i < 5; i++) {
+    await ok('GET', big());
+    await ok('GET', small());
+  }
+  const bigMs: number[] = [];
+  const smallMs: number[] = [];
+  for (let i = 0; i < QUERY_RUNS; i += 10) {
+    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) bigMs.push(await timedGet(big()));
+    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) smallMs.push(await timedGet(small()));
+  }
+  return { big: { median: median(bigMs), p95: p95(bigMs) }, small: { median: median(smallMs), p95: p95(smallMs) } };
+}
+
+interface QueryTrace {
+  id: string;
+  firstMs: number;
+  lastMs: number;
+}
+
+async function queryFigures(big: QueryTrace, small: QueryTrace) {
+  const random = (trace: QueryTrace, fraction: number) => {
+    const span = trace.lastMs - trace.firstMs;
+    const from = trace.firstMs + Math.random() * span * (1 - fraction);
     return `from=${from}&to=${from + span * fraction}`;
   };
+  const both = (url: (trace: QueryTrace) => string) => latencyPair(() => url(big), () => url(small));
   return {
-    seriesWhole: await latency(() => `/traces/${id}/series?points=1000`),
-    seriesWindow: await latency(() => `/traces/${id}/series?points=1000&${random(0.01)}`),
-    statsWindow: await latency(() => `/traces/${id}/stats?${random(0.05 + Math.random() * 0.9)}`),
+    seriesWhole: await both((t) => `/traces/${t.id}/series?points=1000`),
+    seriesWindow: await both((t) => `/traces/${t.id}/series?points=1000&${random(t, 0.01)}`),
+    statsWindow: await both((t) => `/traces/${t.id}/stats?${random(t, 0.05 + Math.random() * 0.9)}`),
   };
 }
 
@@ -389,16 +412,14 @@ async function main() {
     console.log(`   (filling it: 1,000,000-sample binary batches on one connection, ${fmtRate(BIG_SAMPLES / ((performance.now() - loadStart) / 1000))})`);
     const small = await newTrace('100-sample trace', { sampleRateHz: 1 });
     await ok('POST', `/traces/${small}/samples`, JSON.stringify({ values: Array.from({ length: 100 }, (_, i) => valueOf(i)) }));
-    const bigFigures = await queryFigures(big, T0, T0 + (BIG_SAMPLES - 1) / 10);
-    const smallFigures = await queryFigures(small, T0, T0 + 99_000);
-    const rows: Array<[string, keyof typeof bigFigures]> = [
+    const figures = await queryFigures({ id: big, firstMs: T0, lastMs: T0 + (BIG_SAMPLES - 1) / 10 }, { id: small, firstMs: T0, lastMs: T0 + 99_000 });
+    const rows: Array<[string, keyof typeof figures]> = [
       ['series?points=1000, whole range', 'seriesWhole'],
       ['series?points=1000, 1 % window', 'seriesWindow'],
       ['stats, random window', 'statsWindow'],
     ];
     for (const [label, key] of rows) {
-      const b = bigFigures[key];
-      const s = smallFigures[key];
+      const { big: b, small: s } = figures[key];
       console.log(
         `   ${label.padEnd(34)} 10M ${b.median.toFixed(2).padStart(6)} / ${b.p95.toFixed(2).padStart(6)}   100 ${s.median.toFixed(2).padStart(6)} / ${s.p95.toFixed(2).padStart(6)}   ratio ${(b.median / s.median).toFixed(2)} (target ≤ 2), ${b.median < 20 ? 'under' : 'OVER'} 20 ms`,
       );

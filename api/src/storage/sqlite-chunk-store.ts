@@ -88,6 +88,13 @@ function pipeline(conn: SqliteDatabase, statements: Statement[]): Promise<number
   });
 }
 
+/** About how many bytes the stages write (blobs, and 16 bytes for any other value). */
+function bytesOf(stages: Stage[]): number {
+  let bytes = 0;
+  for (const stage of stages) for (const [, params] of stage.statements) for (const p of params) bytes += Buffer.isBuffer(p) ? p.length : 16;
+  return bytes;
+}
+
 function all<T>(conn: SqliteDatabase, sql: string, params: Param[] = []): Promise<T[]> {
   return new Promise((resolve, reject) => {
     conn.all(sql, params, (err: Error | null, rows: T[]) => (err ? reject(err) : resolve(rows)));
@@ -144,8 +151,9 @@ export class SqliteChunkStore implements ChunkStore {
    */
   private async transact(stages: Stage[]): Promise<boolean> {
     if (!this.writer) return this.transactInMemory(stages);
+    const bytes = bytesOf(stages); // before the blobs move to the writer thread
     const committed = await this.writer.transact(stages);
-    if (committed) this.wrote(stages);
+    if (committed) this.wrote(bytes);
     return committed;
   }
 
@@ -169,10 +177,8 @@ export class SqliteChunkStore implements ChunkStore {
   }
 
   /** Counts what a transaction wrote and starts a background checkpoint once enough has gathered. */
-  private wrote(stages: Stage[]): void {
-    for (const stage of stages) {
-      for (const [, params] of stage.statements) for (const p of params) this.bytesSinceCheckpoint += Buffer.isBuffer(p) ? p.length : 16;
-    }
+  private wrote(bytes: number): void {
+    this.bytesSinceCheckpoint += bytes;
     if (this.bytesSinceCheckpoint < CHECKPOINT_BYTES || this.checkpointing) return;
     this.checkpointing = true;
     this.bytesSinceCheckpoint = 0;

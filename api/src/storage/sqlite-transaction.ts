@@ -50,11 +50,11 @@ export interface WireStage {
   expectChanges?: number[];
 }
 
-/** The stages with their blobs copied into one transferable buffer. */
-export function pack(stages: Stage[]): { stages: WireStage[]; blobs: ArrayBuffer } {
+/** The stages with their blobs copied into one transferable buffer of at least their size, from `buffer(size)`. */
+export function pack(stages: Stage[], buffer: (size: number) => ArrayBuffer): { stages: WireStage[]; blobs: ArrayBuffer } {
   let size = 0;
   for (const stage of stages) for (const [, params] of stage.statements) for (const p of params) if (Buffer.isBuffer(p)) size += p.length;
-  const blobs = new ArrayBuffer(size);
+  const blobs = buffer(size);
   const bytes = new Uint8Array(blobs);
   let at = 0;
   const wire = stages.map((stage) => ({
