@@ -26,7 +26,10 @@ export interface Replay {
 export interface IdempotencyContext {
   key: string;
   operation: string;
+  /** Running hash: a streamed body is added to it as it goes through. */
   hash: Hash;
+  /** The hash's hex digest, taken once: a Hash can be digested only once, and a request may need it twice. */
+  fingerprint(): string;
 }
 
 export function idempotencyContext(key: string | undefined, operation: string, describe: string): IdempotencyContext | null {
@@ -38,7 +41,8 @@ export function idempotencyContext(key: string | undefined, operation: string, d
   }
   const hash = createHash('sha256');
   hash.update(`${operation}\n${describe}\n`);
-  return { key, operation, hash };
+  let digest: string | undefined;
+  return { key, operation, hash, fingerprint: () => (digest ??= hash.digest('hex')) };
 }
 
 export function createIdempotencyStore(db: Db) {

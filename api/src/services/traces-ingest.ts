@@ -237,7 +237,7 @@ export function createTraceIngest(deps: IngestDeps) {
     const stored = await idempotency.find(scope, ctx.key);
     if (!stored) return null;
     await drainBody(body);
-    return idempotency.checkReplay(stored, ctx, ctx.hash.digest('hex'));
+    return idempotency.checkReplay(stored, ctx, ctx.fingerprint());
   }
 
   /** Fills `trace` from the body in one batch and commits it with its idempotency record. */
@@ -256,7 +256,7 @@ export function createTraceIngest(deps: IngestDeps) {
     try {
       const read = await readBody(format, body, trace, options, writer);
       await beforeCommit;
-      const fingerprint = ctx?.hash.digest('hex') ?? '';
+      const fingerprint = ctx?.fingerprint() ?? '';
       let answer: unknown;
       const batch = await writer.finish((result) => {
         answer = respond(appendResult(trace, result, read), result);
@@ -295,7 +295,7 @@ export function createTraceIngest(deps: IngestDeps) {
         } catch (err) {
           if (ctx && isDuplicateKeyError(err)) {
             const stored = await idempotency.find(scope, ctx.key);
-            if (stored) return replayed(idempotency.checkReplay(stored, ctx, ctx.hash.digest('hex')));
+            if (stored) return replayed(idempotency.checkReplay(stored, ctx, ctx.fingerprint()));
           }
           throw err;
         }
@@ -333,7 +333,7 @@ export function createTraceIngest(deps: IngestDeps) {
         await trace.destroy();
         if (ctx && isDuplicateKeyError(err)) {
           const stored = await idempotency.find(scope, ctx.key);
-          if (stored) return replayed(idempotency.checkReplay(stored, ctx, ctx.hash.digest('hex')));
+          if (stored) return replayed(idempotency.checkReplay(stored, ctx, ctx.fingerprint()));
         }
         throw err;
       }
@@ -342,7 +342,7 @@ export function createTraceIngest(deps: IngestDeps) {
     /** POST /traces/{id}/close: runs the full analysis, stores it and marks the trace closed. */
     async close(scope: Scope, traceId: string, idempotencyKey: string | undefined) {
       const ctx = idempotencyContext(idempotencyKey, `close-trace:${traceId}`, '');
-      const fingerprint = ctx?.hash.digest('hex') ?? '';
+      const fingerprint = ctx?.fingerprint() ?? '';
       return queue.run(traceId, async () => {
         if (ctx) {
           const stored = await idempotency.find(scope, ctx.key);

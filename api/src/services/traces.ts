@@ -222,7 +222,7 @@ export function createTracesService(db: Db, config: Config) {
       const ctx = idempotencyContext(idempotencyKey, 'create-trace', '');
       if (!ctx) return { status: 201, body: toTraceView(await createTrace(scope, input)), replayed: false };
       ctx.hash.update(JSON.stringify(input));
-      const fingerprint = ctx.hash.digest('hex');
+      const fingerprint = ctx.fingerprint();
       const replayIfKnown = async (): Promise<Replay | null> => {
         const stored = await idempotency.find(scope, ctx.key);
         return stored ? idempotency.checkReplay(stored, ctx, fingerprint) : null;

@@ -52,6 +52,26 @@ describe.skipIf(testsRunOnPostgres)('trace storage on a SQLite file', () => {
     expect(await t.db.models.Site.count()).toBe(5);
   });
 
+  it('when one import is sent twice at once with the same Idempotency-Key, then one trace is kept and both get its answer', async () => {
+    // Both uploads store their samples; the writer thread refuses the second one's idempotency record
+    // (SQLite's UNIQUE constraint), which must turn into the first one's answer, not an error.
+    const before = await t.db.models.Trace.count();
+    const csv = 'time,current\n1700000000000,1\n1700000001000,2\n1700000002000,3\n';
+    const send = () =>
+      request(t.app)
+        .post('/api/v1/traces/import')
+        .set(auth)
+        .set('Idempotency-Key', 'import-once')
+        .field('name', 'Imported once')
+        .attach('file', Buffer.from(csv), { filename: 'once.csv', contentType: 'text/csv' });
+    const [a, b] = await Promise.all([send(), send()]);
+    expect([a.status, b.status], JSON.stringify([a.body, b.body])).toEqual([201, 201]);
+    expect(a.body.trace.id).toBe(b.body.trace.id);
+    expect(await t.db.models.Trace.count()).toBe(before + 1);
+    const stats = (await request(t.app).get(`/api/v1/traces/${a.body.trace.id}/stats`).set(auth)).body.statistics;
+    expect(stats.count).toBe(3);
+  });
+
   it('when chunks of an interrupted batch were left behind, then the next batch clears them and is stored', async () => {
     const { body: trace } = await request(t.app).post('/api/v1/traces').set(auth).send({ name: 'Interrupted', kind: 'rms' });
     await request(t.app).post(`/api/v1/traces/${trace.id}/samples`).set(auth).send({ t: [T0, T0 + 1000], a: [1, 2] });

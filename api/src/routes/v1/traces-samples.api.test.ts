@@ -216,6 +216,18 @@ describe('POST /api/v1/traces/{id}/samples', () => {
       expect((await storedCount(id)).samples).toBe(2);
     });
 
+    it('when one key comes at once with batches for two traces, then one is stored and the other is refused as a different request, storing nothing', async () => {
+      // The two race to record the key; the loser's transaction is rolled back and it gets the refusal a
+      // reused key gets, not an error.
+      const [one, two] = [await newTrace(), await newTrace()];
+      const body = JSON.stringify({ t: [T0, T0 + 1000], a: [3, 4] });
+      const answers = await Promise.all([one, two].map((id) => post(id, 'application/json', body).set('Idempotency-Key', 'shared-key')));
+      expect(answers.map((r) => r.status).sort()).toEqual([200, 409]);
+      expect(answers.find((r) => r.status === 409)!.body.detail).toMatch(/different request/);
+      const stored = [(await storedCount(one)).samples, (await storedCount(two)).samples];
+      expect(stored.sort()).toEqual([0, 2]);
+    });
+
     it('when a failed batch is retried with its key, then it is tried again (failures are not remembered)', async () => {
       const id = await newTrace();
       expect((await post(id, 'application/json', '{"t": [1700000000000], "a": [NaN]}').set('Idempotency-Key', 'retry-me')).status).toBe(400);
