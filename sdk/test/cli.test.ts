@@ -169,7 +169,9 @@ describe('errors and exit codes', () => {
   });
 
   it('when options are missing or unknown, then exit 2 with usage help', async () => {
-    expect((await cli(['push', UCI_FILE])).stderr).toMatch(/--trace ID, or --new --name NAME/);
+    const file = path.join(workDir, 'usage.csv');
+    writeFileSync(file, 'time,amps\n2026-03-02T08:00:00Z,1\n');
+    expect((await cli(['push', file])).stderr).toMatch(/--trace ID, or --new --name NAME/);
     const unknown = await cli(['stats']);
     expect(unknown.code).toBe(2);
     expect(unknown.stderr).toMatch(/missing required argument 'trace-id'/);
