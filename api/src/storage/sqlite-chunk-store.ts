@@ -151,7 +151,7 @@ export class SqliteChunkStore implements ChunkStore {
    */
   private async transact(stages: Stage[]): Promise<boolean> {
     if (!this.writer) return this.transactInMemory(stages);
-    const bytes = bytesOf(stages); // before the blobs move to the writer thread
+    const bytes = bytesOf(stages);
     const committed = await this.writer.transact(stages);
     if (committed) this.wrote(bytes);
     return committed;

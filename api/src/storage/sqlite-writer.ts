@@ -13,11 +13,10 @@
  * sqlite3 package. `close()` stops the thread. While no transaction is pending, the thread does not
  * keep the process alive.
  *
- * Memory: the blobs of a transaction (up to a few MB while a large upload streams) are copied into one
- * ArrayBuffer that moves to the thread and comes back with the answer, and is used again for a later
- * transaction. Left in the thread, which allocates so little that it rarely collects garbage, the copies
- * piled up; made anew each time, they doubled the garbage of a streaming upload (a 100M-sample upload
- * peaked above 300 MB either way).
+ * Memory: the blobs of a transaction (up to about 1 MB while a large upload streams) are copied into
+ * one ArrayBuffer that moves to the thread and comes back with the answer, to be used again for a later
+ * transaction. Blobs moved to the thread for good piled up there, as the thread allocates so little that
+ * it rarely collects garbage (a 100M-sample upload then peaked at 280–331 MB of RSS).
  */
 import { build, stop } from 'esbuild';
 import { fileURLToPath } from 'node:url';
@@ -40,7 +39,11 @@ let threadCode: Promise<string> | undefined;
 function bundledThread(): Promise<string> {
   threadCode ??= build({ entryPoints: [THREAD_FILE], bundle: true, platform: 'node', format: 'cjs', target: 'node20', external: ['sqlite3'], write: false, logLevel: 'silent' })
     .then((result) => `(function (require) {\n${result.outputFiles[0]!.text}\n})(require('node:module').createRequire(${JSON.stringify(THREAD_FILE)}));`)
-    .finally(() => stop()); // esbuild's helper process is not needed again
+    .finally(() => stop()) // esbuild's helper process is not needed again
+    .catch((err: unknown) => {
+      threadCode = undefined; // tried again on the next write
+      throw err;
+    });
   return threadCode;
 }
 
@@ -82,15 +85,21 @@ export class SqliteWriter {
     return k >= 0 ? (this.spare.splice(k, 1)[0] as ArrayBuffer) : new ArrayBuffer(Math.max(size, 64 * 1024));
   }
 
+  /** Keeps a buffer back from the thread, unless it is too large; with too many kept, the smallest goes. */
   private keep(buffer: ArrayBuffer | undefined): void {
     if (!buffer || buffer.byteLength > SPARE_BUFFER_MAX_BYTES) return;
-    if (this.spare.length >= SPARE_BUFFERS) this.spare.splice(this.spare.reduce((m, b, k, all) => (b.byteLength < (all[m] as ArrayBuffer).byteLength ? k : m), 0), 1);
     this.spare.push(buffer);
+    if (this.spare.length > SPARE_BUFFERS) this.spare.sort((a, b) => b.byteLength - a.byteLength).pop();
   }
 
   private async request(request: WriterRequest, transfer: ArrayBuffer[] = []): Promise<boolean> {
-    // Requests wait for the same start, so they reach the thread in the order they were made.
-    const worker = await (this.worker ??= this.start());
+    // Requests wait for the same start, so they reach the thread in the order they were made. A start
+    // that failed is tried again by the next request.
+    this.worker ??= this.start().catch((err: unknown) => {
+      this.worker = undefined;
+      throw err;
+    });
+    const worker = await this.worker;
     return new Promise<boolean>((resolve, reject) => {
       if (this.pending.size === 0) worker.ref();
       this.pending.set(request.id, { resolve, reject });
