@@ -249,11 +249,12 @@ export class SqliteChunkStore implements ChunkStore {
     const inserts = this.insertChunks(batch.traceId, batch.organisationId, chunks, c ? c.row.seq : null);
     const stages: Stage[] = [
       {
-        // The conditional UPDATE first, then the chunks (new ones at places no reader sees until
-        // chunkCount is raised): should SQLite abandon the transaction on a disk error, whatever runs
-        // after it here outside the transaction is such a chunk, which nothing reads. Each statement is
-        // one trip to the sqlite3 worker thread and back through the event loop, so there are as few as
-        // can be: the trace row, then one INSERT per table.
+        // The conditional UPDATE first, then the chunks: new ones at places no reader sees until
+        // chunkCount is raised, and the topped-up last chunk, which readers do see, replaced in the same
+        // INSERTs. A statement that fails (a disk error may end the transaction) stops the rest from
+        // running (runTransaction), so nothing runs outside the transaction. Each statement is one trip
+        // to the sqlite3 worker pool and back through the writer thread's event loop, so there are as
+        // few as can be: the trace row, then one INSERT per table.
         statements: [
           [
             `UPDATE traces SET "sampleCount" = ?, "chunkCount" = ?, "originUs" = ?, "firstSampleUs" = ?, "lastSampleUs" = ?,
