@@ -77,37 +77,44 @@ export function parseDecimalText(text: string): number {
 
 const isDigit = (b: number) => b >= 48 && b <= 57;
 
+/** What scanJsonNumber read: the value and the index just after the number. */
+export interface ScannedNumber {
+  value: number;
+  end: number;
+}
+
 /**
- * A JSON number in buf[start, end), or NaN when the bytes are not one (RFC 8259 grammar).
+ * Reads the JSON number (RFC 8259 grammar) that starts at buf[start], in one pass, up to the first
+ * byte that cannot continue it or up to `limit`: the value goes to out.value and the index after the
+ * number to out.end. Returns false when the bytes at `start` do not begin a number ("-", "1.", "1e",
+ * ".5", "x"). What follows the number is the caller's to check ("01" reads as 0 followed by "1").
  * Integers and decimals of up to 15 significant digits with a small exponent take the exact fast path.
  */
-export function parseJsonNumber(buf: Uint8Array, start: number, end: number): number {
+export function scanJsonNumber(buf: Uint8Array, start: number, limit: number, out: ScannedNumber): boolean {
   let i = start;
   let negative = false;
   if (buf[i] === 45) {
     negative = true;
     i++;
   }
-  if (i >= end) return Number.NaN;
+  if (i >= limit) return false;
   const digitsStart = i;
   let mantissa = 0;
   let significant = 0;
   let fractionDigits = 0;
   const first = buf[i] as number;
-  if (first === 48) {
-    i++;
-    if (i < end && isDigit(buf[i] as number)) return Number.NaN;
-  } else if (first >= 49 && first <= 57) {
-    while (i < end && isDigit(buf[i] as number)) {
+  if (first === 48) i++;
+  else if (first >= 49 && first <= 57) {
+    while (i < limit && isDigit(buf[i] as number)) {
       mantissa = mantissa * 10 + ((buf[i] as number) - 48);
       significant++;
       i++;
     }
-  } else return Number.NaN;
-  if (i < end && buf[i] === 46) {
+  } else return false;
+  if (i < limit && buf[i] === 46) {
     i++;
-    if (i >= end || !isDigit(buf[i] as number)) return Number.NaN;
-    while (i < end && isDigit(buf[i] as number)) {
+    if (i >= limit || !isDigit(buf[i] as number)) return false;
+    while (i < limit && isDigit(buf[i] as number)) {
       mantissa = mantissa * 10 + ((buf[i] as number) - 48);
       if (mantissa > 0) significant++;
       fractionDigits++;
@@ -115,22 +122,30 @@ export function parseJsonNumber(buf: Uint8Array, start: number, end: number): nu
     }
   }
   let exponent = 0;
-  if (i < end && (buf[i] === 101 || buf[i] === 69)) {
+  if (i < limit && (buf[i] === 101 || buf[i] === 69)) {
     i++;
     let expNegative = false;
     if (buf[i] === 43 || buf[i] === 45) {
       expNegative = buf[i] === 45;
       i++;
     }
-    if (i >= end || !isDigit(buf[i] as number)) return Number.NaN;
-    while (i < end && isDigit(buf[i] as number)) {
+    if (i >= limit || !isDigit(buf[i] as number)) return false;
+    while (i < limit && isDigit(buf[i] as number)) {
       if (exponent < 100000) exponent = exponent * 10 + ((buf[i] as number) - 48);
       i++;
     }
     if (expNegative) exponent = -exponent;
   }
-  if (i !== end) return Number.NaN;
   const power = exponent - fractionDigits;
-  const value = exactDecimal(mantissa, significant, power) ?? Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, end - digitsStart).toString('latin1'));
-  return negative ? -value : value;
+  const value = exactDecimal(mantissa, significant, power) ?? Number(Buffer.from(buf.buffer, buf.byteOffset + digitsStart, i - digitsStart).toString('latin1'));
+  out.value = negative ? -value : value;
+  out.end = i;
+  return true;
+}
+
+const scratch: ScannedNumber = { value: 0, end: 0 };
+
+/** A JSON number in buf[start, end), or NaN when the bytes are not one (RFC 8259 grammar). */
+export function parseJsonNumber(buf: Uint8Array, start: number, end: number): number {
+  return scanJsonNumber(buf, start, end, scratch) && scratch.end === end ? scratch.value : Number.NaN;
 }

@@ -59,4 +59,48 @@ describe('JSON sample bodies', () => {
     expect((err as Problem).type).toBe('malformed-body');
     expect((err as Problem).errors).toEqual([{ detail: 'expected a value after ","', line: 3, column: 14 }]);
   });
+
+  it('when long arrays of numbers are cut anywhere, then every reading and timestamp equals JSON.parse of it', async () => {
+    // source: ECMA-262 JSON.parse is the reference for each number (readings then rounded to float32,
+    // the storage type); the one-pass run reader and the general element reader must both agree with it.
+    const reading = fc.oneof(
+      fc.double({ min: -1e12, max: 1e12, noNaN: true }),
+      fc.integer({ min: -1_000_000, max: 1_000_000 }),
+      fc.integer({ min: -99_999, max: 99_999 }).map((n) => n / 100),
+    );
+    await fc.assert(
+      fc.asyncProperty(fc.array(reading, { minLength: 1, maxLength: 300 }), fc.integer({ min: 1, max: 64 }), fc.boolean(), async (values, size, spaced) => {
+        const t = values.map((_, i) => 1_700_000_000_000 + i * 0.25);
+        const body = spaced ? JSON.stringify({ t, a: values }, null, 1) : JSON.stringify({ t, a: values });
+        const sink = collect();
+        expect(await readJsonSamples(pieces(body, size), options(), sink)).toBe(values.length);
+        const parsed = JSON.parse(body) as { t: number[]; a: number[] };
+        expect(sink.values).toEqual(parsed.a.map((x) => Math.fround(x)));
+        expect(sink.times).toEqual(parsed.t.map((x) => Math.round(x * 1000)));
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('when a bad element sits inside a run of numbers, then the problem names that element wherever the body is cut', async () => {
+    // common practice, no source: RFC 9457 problem details point at the first bad element (JSON Pointer, or line and column).
+    const cases: Array<[string, { detail: string; pointer?: string; line?: number; column?: number }]> = [
+      ['{"values":[1,2,3,1e400,5]}', { detail: 'not finite (Infinity)', pointer: '/values/3' }],
+      ['{"values":[1,2,3,-2e12,5]}', { detail: 'larger in magnitude than 1000000000000', pointer: '/values/3' }],
+      ['{"values":[1,2,3,01,5]}', { detail: '"01" is not a JSON value', line: 1, column: 18 }],
+      ['{"values":[1,2,3,1.,5]}', { detail: '"1." is not a JSON value', line: 1, column: 18 }],
+      ['{"values":[1,2,3,null,5]}', { detail: 'must be a number, not null', pointer: '/values/3' }],
+      ['{"values":[1,2,3,,5]}', { detail: 'expected a value after ","', line: 1, column: 18 }],
+      ['{"values":[1,2,3 4]}', { detail: 'expected "," or "]" in the array', line: 1, column: 18 }],
+      ['{"t":[1700000000000,1700000000001,1700000000001],"a":[1,2,3]}', { detail: 'timestamps must increase: this one is not after the previous one', pointer: '/t/2' }],
+    ];
+    for (const [body, expected] of cases) {
+      for (const size of [1, 3, 7, 1000]) {
+        const uniform = { ...options(), defaultRateHz: 10, defaultStart: { startUs: 0 } };
+        const err = (await readJsonSamples(pieces(body, size), uniform, collect()).catch((e: unknown) => e)) as Problem;
+        expect(err, `${body} in pieces of ${size}`).toBeInstanceOf(Problem);
+        expect(err.errors, `${body} in pieces of ${size}`).toEqual([expected]);
+      }
+    }
+  });
 });

@@ -17,8 +17,8 @@
  */
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
-import { parseJsonNumber } from './decimal-text.js';
-import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
+import { parseJsonNumber, scanJsonNumber, type ScannedNumber } from './decimal-text.js';
+import { growableFloat32, growableFloat64, MAX_ABS_READING, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 export interface JsonSampleOptions {
@@ -68,6 +68,7 @@ class JsonSampleParser {
   private start: UniformStart | null | undefined = undefined;
   private rateHz: number | undefined;
   private pushedUniform = 0;
+  private readonly scanned: ScannedNumber = { value: 0, end: 0 };
 
   constructor(
     private readonly options: JsonSampleOptions,
@@ -187,6 +188,13 @@ class JsonSampleParser {
             p++;
             continue;
           }
+          if (b !== 34) {
+            const after = this.numberRun(buf, p, end);
+            if (after !== p) {
+              p = after;
+              continue;
+            }
+          }
           const next = this.item(buf, p, end, final);
           if (next < 0) return p;
           this.state = State.CommaOrArrayEnd;
@@ -257,6 +265,36 @@ class JsonSampleParser {
     return value;
   }
 
+  /**
+   * The body's bulk, array elements that are plain numbers, read in one pass each: a number followed
+   * at once by "," or "]" within this buffer is read and stored straight away, and the run goes on to
+   * the next element. It stops at the first element it does not take (whitespace, a string, a literal,
+   * a number cut by the buffer's end, a reading out of range) and leaves that to `item`, which reads it
+   * or names the error. Returns the index after the last element taken (p when none was), with the
+   * state set for what follows it.
+   */
+  private numberRun(buf: Buffer, p: number, end: number): number {
+    const out = this.scanned;
+    const times = this.key === 't';
+    while (scanJsonNumber(buf, p, end, out) && out.end < end) {
+      const next = buf[out.end] as number;
+      if (next !== 44 && next !== 93) return p;
+      if (times) this.addTime(null, out.value);
+      else {
+        if (!(Math.abs(out.value) <= MAX_ABS_READING)) return p;
+        this.values.push(out.value);
+        this.valueCount++;
+      }
+      p = out.end + 1;
+      if (next === 93) {
+        this.state = State.CommaOrEnd;
+        return p;
+      }
+      this.state = State.Item;
+    }
+    return p;
+  }
+
   /** One array element at p; returns the index after it, or -1 when incomplete. */
   private item(buf: Buffer, p: number, end: number, final: boolean): number {
     const key = this.key as Key;
@@ -270,6 +308,7 @@ class JsonSampleParser {
     }
     const tokenEnd = this.bareEnd(buf, p, end, final);
     if (tokenEnd < 0) return -1;
+    if (tokenEnd === p) this.malformed(this.state === State.Item ? 'expected a value after ","' : 'expected a value or "]"', this.base + p);
     // n, t, f: the literals null, true, false (checked only then, so numbers make no string).
     if (b === 110 || b === 116 || b === 102) {
       const text = buf.toString('latin1', p, Math.min(tokenEnd, p + 10));
