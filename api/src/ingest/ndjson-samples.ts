@@ -7,7 +7,7 @@ import type { ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
 import { ByteLineSplitter, splitBody } from './line-splitter.js';
 import { growableFloat32, growableFloat64, readingProblem, type SampleSink } from './sample-sink.js';
-import { parseJsonNumber } from './decimal-text.js';
+import { scanJsonNumber, type ScannedNumber } from './decimal-text.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 /** Samples gathered before they are handed to the writer. */
@@ -18,6 +18,8 @@ interface PlainRecord {
   t: number;
   a: number;
 }
+
+const scanned: ScannedNumber = { value: 0, end: 0 };
 
 function skipSpaces(buf: Buffer, i: number, end: number): number {
   while (i < end && (buf[i] === 32 || buf[i] === 9)) i++;
@@ -43,14 +45,11 @@ function plainRecord(buf: Buffer, start: number, end: number, out: PlainRecord):
     seen |= bit;
     i = skipSpaces(buf, i + 3, end);
     if (i >= end || buf[i] !== 58) return false; // :
-    const numberStart = skipSpaces(buf, i + 1, end);
-    let numberEnd = numberStart;
-    for (let c = buf[numberEnd] as number; numberEnd < end && ((c >= 48 && c <= 57) || c === 45 || c === 43 || c === 46 || c === 101 || c === 69); c = buf[++numberEnd] as number);
-    const value = parseJsonNumber(buf, numberStart, numberEnd);
-    if (Number.isNaN(value)) return false;
-    if (bit === 1) out.t = value;
-    else out.a = value;
-    i = skipSpaces(buf, numberEnd, end);
+    // What follows the number is checked next: "01" reads as 0 followed by "1", which is refused there.
+    if (!scanJsonNumber(buf, skipSpaces(buf, i + 1, end), end, scanned)) return false;
+    if (bit === 1) out.t = scanned.value;
+    else out.a = scanned.value;
+    i = skipSpaces(buf, scanned.end, end);
     if (i >= end || buf[i] !== (member === 0 ? 44 : 125)) return false; // , then }
   }
   return skipSpaces(buf, i + 1, end) === end;
