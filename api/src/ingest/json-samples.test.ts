@@ -103,4 +103,44 @@ describe('JSON sample bodies', () => {
       }
     }
   });
+
+  it('when a body is mangled anywhere, then it is read as JSON.parse reads it or refused with a problem, never anything else', async () => {
+    // source: RFC 8259 via ECMA-262 JSON.parse as the oracle: a body JSON.parse refuses must be refused
+    // (never stored); one it reads as {"values": [numbers]} must give the same readings (rounded to float32).
+    const alphabet = [...'0123456789.,-+eE[]{} \n"x'];
+    const edit = fc.record({ at: fc.nat(), kind: fc.constantFrom('insert', 'delete', 'replace'), char: fc.constantFrom(...alphabet) });
+    await fc.assert(
+      fc.asyncProperty(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 40 }), fc.array(edit, { minLength: 1, maxLength: 4 }), fc.integer({ min: 1, max: 40 }), async (values, edits, size) => {
+        let body = JSON.stringify({ values });
+        for (const { at, kind, char } of edits) {
+          const i = at % (body.length + 1);
+          body = kind === 'insert' ? body.slice(0, i) + char + body.slice(i) : kind === 'delete' ? body.slice(0, i) + body.slice(i + 1) : body.slice(0, i) + char + body.slice(i + 1);
+        }
+        let parsed: unknown;
+        try {
+          parsed = JSON.parse(body);
+        } catch {
+          parsed = undefined;
+        }
+        const uniform = { ...options(), defaultRateHz: 10, defaultStart: { startUs: 0 } };
+        const sink = collect();
+        const outcome = await readJsonSamples(pieces(body, size), uniform, sink).catch((e: unknown) => e);
+        if (parsed === undefined) {
+          // Refused; the problem is the first one in the body's order, which may be an unknown member
+          // or a bad value met before the syntax error.
+          expect(outcome, body).toBeInstanceOf(Problem);
+          return;
+        }
+        const list = (parsed as { values?: unknown }).values;
+        const plain =
+          typeof parsed === 'object' && parsed !== null && Object.keys(parsed).length === 1 && body.split('"values"').length === 2 &&
+          Array.isArray(list) && list.length > 0 && list.every((x) => typeof x === 'number' && Math.abs(x) <= 1e12);
+        if (plain) {
+          expect(outcome, body).toBe(list.length);
+          expect(sink.values, body).toEqual(list.map((x) => Math.fround(x)));
+        } else expect(typeof outcome === 'number' || outcome instanceof Problem, body).toBe(true);
+      }),
+      { numRuns: 1500 },
+    );
+  });
 });
