@@ -18,7 +18,7 @@
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
 import { parseJsonNumber, scanJsonNumber, type ScannedNumber } from './decimal-text.js';
-import { growableFloat32, growableFloat64, MAX_ABS_READING, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
+import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 export interface JsonSampleOptions {
@@ -267,11 +267,12 @@ class JsonSampleParser {
 
   /**
    * The body's bulk, array elements that are plain numbers, read in one pass each: a number followed
-   * at once by "," or "]" within this buffer is read and stored straight away, and the run goes on to
-   * the next element. It stops at the first element it does not take (whitespace, a string, a literal,
-   * a number cut by the buffer's end, a reading out of range) and leaves that to `item`, which reads it
-   * or names the error. Returns the index after the last element taken (p when none was), with the
-   * state set for what follows it.
+   * at once by "," or "]" within this buffer is read and stored straight away (through addTime or
+   * addValue, the general reader's own checks), and the run goes on to the next element. It stops at
+   * the first element it does not take (whitespace, a string, a literal, a number cut by the buffer's
+   * end or followed by anything else) and leaves that to `item`, which reads it or names the error.
+   * Returns the index after the last element taken (p when none was), with the state set for what
+   * follows it.
    */
   private numberRun(buf: Buffer, p: number, end: number): number {
     const out = this.scanned;
@@ -280,11 +281,7 @@ class JsonSampleParser {
       const next = buf[out.end] as number;
       if (next !== 44 && next !== 93) return p;
       if (times) this.addTime(null, out.value);
-      else {
-        if (!(Math.abs(out.value) <= MAX_ABS_READING)) return p;
-        this.values.push(out.value);
-        this.valueCount++;
-      }
+      else this.addValue(out.value);
       p = out.end + 1;
       if (next === 93) {
         this.state = State.CommaOrEnd;
