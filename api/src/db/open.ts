@@ -22,7 +22,6 @@ export interface DbOptions {
   migrate?: boolean;
 }
 
-
 function runSql(conn: SqliteDatabase, sql: string): Promise<void> {
   return new Promise((resolve, reject) => conn.run(sql, (err) => (err ? reject(err) : resolve())));
 }
