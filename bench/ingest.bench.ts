@@ -4,8 +4,10 @@
  *
  * 1. Ingest rates, WORKERS connections each appending to its own trace: float32 binary batches of
  *    100,000 samples, JSON batches of 10,000 (`{"t","a"}` and `{"values"}`), CSV and NDJSON batches of
- *    10,000 rows. Bodies are built (as bytes) before the clock starts. For scale, the `{"values"}`
- *    batches also go to a bare Express endpoint that only parses them (bench/support/json-floor-server.ts).
+ *    10,000 rows. Bodies are built (as bytes) before the clock starts. Each format is timed after a
+ *    warm-up of its own (WARMUP_SECONDS of its batches to other traces). For scale, both kinds of JSON
+ *    batches also go to a bare Express endpoint that only parses them (bench/support/json-floor-server.ts),
+ *    warmed up alike.
  *    INGEST_FORMATS=json (a part of the format names) runs only those formats, and only this section.
  * 2. Query latency on a 10,000,000-sample trace and on a 100-sample trace: `series?points=1000` of the
  *    whole range and of a 1 % window at a random place, and `stats` of a random window (medians and
@@ -29,7 +31,7 @@ import { ServerProcess, freePort, sleep } from '../api/test/stress/support/serve
 
 const WORKERS = Number(process.env.INGEST_WORKERS ?? 4);
 const QUERY_RUNS = Number(process.env.INGEST_QUERY_RUNS ?? 100);
-/** Untimed batches each connection sends first in each format, after the server's warm-up of WARMUP_SECONDS. */
+/** Untimed batches each connection sends first to its measured trace, after the format's warm-up of WARMUP_SECONDS. */
 const WARMUP_BATCHES = 5;
 const WARMUP_SECONDS = 3;
 const BIG_SAMPLES = 10_000_000;
@@ -155,7 +157,9 @@ const FORMATS: Format[] = [
   {
     name: 'JSON {"t","a"}, 10,000-sample batches',
     batchSamples: 10_000,
-    batchesPerWorker: 60,
+    // Each batch needs times of its own (about 230 KB a body, 190 MB for all): 200 a connection time
+    // about 2.5 s, where 60 (0.7 s) read 5–15 % lower, the bare endpoint's calibration alike.
+    batchesPerWorker: 200,
     contentType: 'application/json',
     traceExtra: {},
     body: (_w, b) => jsonTaBatch(b, 10_000),
@@ -222,26 +226,33 @@ async function ingestRate(format: Format, url?: string): Promise<number> {
 }
 
 /**
- * Warms the server up as if it had been running: WORKERS connections post `{"values"}` batches to
- * traces of their own for `seconds` (V8 compiles the hot paths in tiers and sizes its heap over the
- * first seconds; a run of about one second straight after start measured 30–40 % below a warm server).
+ * Warms the server up on `format` as if it had been running: WORKERS connections post its batches for
+ * `seconds` to warm-up traces of their own (a new one when WARMUP_BODIES run out, as times must increase
+ * within a trace), or to `url`. V8 compiles the hot paths in tiers and sizes its heap over the first
+ * seconds of a load: a run of about one second straight after start measured 30–40 % below a warm
+ * server, and a format timed straight after another one read lower than after its own warm-up
+ * (`{"t","a"}`: 3.0–3.8 M samples/s after a `{"values"}` warm-up, 3.6–4.8 after its own). So each format
+ * gets its own, and no figure depends on the one before it.
  */
-async function warmUp(seconds: number): Promise<void> {
-  const format = FORMATS.find((f) => f.name.includes('{"values"}'))!;
-  const urls: string[] = [];
-  for (let w = 0; w < WORKERS; w++) urls.push(`/traces/${await newTrace(`warm-up #${w}`, format.traceExtra)}/samples`);
-  const body = format.body(0, 0);
+async function warmUp(format: Format, seconds: number, url?: string): Promise<void> {
+  const WARMUP_BODIES = 20;
+  const bodies = Array.from({ length: WORKERS }, (_, w) => Array.from({ length: WARMUP_BODIES }, (_, b) => format.body(w, b)));
   const until = performance.now() + seconds * 1000;
   freshConnections();
   await Promise.all(
-    urls.map(async (url) => {
-      while (performance.now() < until) await ok('POST', url, body, format.contentType);
+    bodies.map(async (mine, w) => {
+      while (performance.now() < until) {
+        const target = url ?? `/traces/${await newTrace(`warm-up: ${format.name} #${w}`, format.traceExtra)}/samples`;
+        for (let b = 0; b < WARMUP_BODIES && performance.now() < until; b++) {
+          await ok('POST', url ?? `${target}${format.query(b)}`, mine[b], format.contentType);
+        }
+      }
     }),
   );
 }
 
 /**
- * The same JSON `{"values"}` batches posted to a bare Express endpoint (bench/support/json-floor-server.ts)
+ * The same JSON batches posted to a bare Express endpoint (bench/support/json-floor-server.ts)
  * on the same machine and client: what this machine allows any Express endpoint before it does any work.
  */
 async function jsonFloorRate(format: Format): Promise<number> {
@@ -257,6 +268,7 @@ async function jsonFloorRate(format: Format): Promise<number> {
     const server = base;
     base = { ...base, port: floorPort };
     try {
+      await warmUp(format, WARMUP_SECONDS, '/floor');
       return await ingestRate(format, '/floor');
     } finally {
       base = server;
@@ -385,20 +397,19 @@ async function main() {
   try {
     await server.start();
 
-    console.log(`1. Ingest over HTTP (samples stored per second, batches committed; after ${WARMUP_SECONDS} s of warm-up)`);
-    await warmUp(WARMUP_SECONDS);
+    console.log(`1. Ingest over HTTP (samples stored per second, batches committed; each format after ${WARMUP_SECONDS} s of its own warm-up)`);
     const rates: Record<string, number> = {};
     for (const format of FORMATS.filter((f) => f.name.toLowerCase().includes(ONLY_FORMATS))) {
+      await warmUp(format, WARMUP_SECONDS);
       const rate = await ingestRate(format);
       rates[format.name] = rate;
       console.log(`   ${format.name.padEnd(48)} ${fmtRate(rate).padStart(18)}   ${(rate / format.target).toFixed(2)}× the target of ${format.target / 1e6} M/s`);
     }
-    const valuesFormat = FORMATS.find((f) => f.name.includes('{"values"}'))!;
-    if (rates[valuesFormat.name] !== undefined) {
-      const floor = await jsonFloorRate(valuesFormat);
+    for (const format of FORMATS.filter((f) => f.name.startsWith('JSON') && rates[f.name] !== undefined)) {
+      const floor = await jsonFloorRate(format);
       console.log(
-        `   (calibration: the same {"values"} batches to a bare Express endpoint that only parses them, no auth, checks or storage: ` +
-          `${fmtRate(floor)}; Headroom reaches ${(rates[valuesFormat.name]! / floor).toFixed(2)} of it)`,
+        `   (calibration: the same ${/\{[^}]*\}/.exec(format.name)![0]} batches to a bare Express endpoint that only parses them, no auth, checks or storage: ` +
+          `${fmtRate(floor)}; Headroom reaches ${(rates[format.name]! / floor).toFixed(2)} of it)`,
       );
     }
     if (ONLY_FORMATS) return;
