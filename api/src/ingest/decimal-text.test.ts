@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { parseDecimalText } from './decimal-text.js';
+import { parseDecimalText, scanJsonNumber, type ScannedNumber } from './decimal-text.js';
 
 // source: ECMAScript's Number() (ECMA-262, StringToNumber) is the reference; it reads every string of
 // the grammar exactly, correctly rounded.
@@ -38,5 +38,59 @@ describe('parseDecimalText', () => {
     expect(parseDecimalText('.5')).toBe(0.5);
     expect(parseDecimalText('5.')).toBe(5);
     expect(Object.is(parseDecimalText('-0'), -0)).toBe(true);
+  });
+});
+
+describe('scanJsonNumber', () => {
+  // source: JSON.parse (ECMA-262) reads every number of the RFC 8259 grammar, correctly rounded.
+  const scan = (text: string) => {
+    const buf = Buffer.from(text);
+    const out: ScannedNumber = { value: Number.NaN, end: -1 };
+    return scanJsonNumber(buf, 0, buf.length, out) ? out : null;
+  };
+
+  it('when the bytes are a JSON number, then it reads exactly what JSON.parse reads, up to the byte after it', () => {
+    const jsonNumber = fc
+      .tuple(
+        fc.constantFrom('', '-'),
+        fc.oneof(fc.constant('0'), fc.stringMatching(/^[1-9]\d{0,22}$/)),
+        fc.oneof(fc.constant(''), fc.stringMatching(/^\.\d{1,22}$/)),
+        fc.oneof(fc.constant(''), fc.stringMatching(/^[eE][+-]?\d{1,3}$/)),
+      )
+      .map((parts) => parts.join(''));
+    fc.assert(
+      fc.property(jsonNumber, fc.constantFrom(',', ']', '}', ' ', ''), (text, after) => {
+        const read = scan(text + after);
+        return read !== null && read.end === text.length && Object.is(read.value, JSON.parse(text));
+      }),
+      { numRuns: 30_000 },
+    );
+  });
+
+  it('reads mantissas at the edge of the exact path (2^53 = 9007199254740992) as JSON.parse does', () => {
+    for (const text of [
+      '9007199254740991',
+      '9007199254740992',
+      '9007199254740993',
+      '9007199254740995',
+      '90071992547409930',
+      '900719925474099.3',
+      '0.9007199254740993',
+      '-9007199254740993e-10',
+      '1772438400001.25',
+      '17724384000012345',
+      '0.00000000000000000000001',
+      '1e22',
+      '1e23',
+      '123456789012345678901234567890',
+    ]) {
+      expect(scan(text)?.value, text).toBe(JSON.parse(text));
+    }
+  });
+
+  it('when the bytes do not begin a number, then it says so; what follows a number is left to the caller', () => {
+    for (const text of ['', '-', '-a', 'x', '.5', '1.', '1.e5', '1e', '1e+', '+1']) expect(scan(text), text).toBeNull();
+    expect(scan('01')).toEqual({ value: 0, end: 1 });
+    expect(scan('12.5x')).toEqual({ value: 12.5, end: 4 });
   });
 });
