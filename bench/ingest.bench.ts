@@ -202,20 +202,26 @@ const FORMATS: Format[] = [
   },
 ];
 
+/** Where one connection posts `format`'s batch b: to a new trace of its own (named `name`), or to `url`. */
+async function batchTarget(format: Format, name: string, url?: string): Promise<(b: number) => string> {
+  if (url) return () => url;
+  const samples = `/traces/${await newTrace(name, format.traceExtra)}/samples`;
+  return (b) => `${samples}${format.query(b)}`;
+}
+
 /** Samples per second of WORKERS connections each posting `format`'s batches, to its own trace or to `url`. */
 async function ingestRate(format: Format, url?: string): Promise<number> {
-  const urls: string[] = [];
-  for (let w = 0; w < WORKERS; w++) urls.push(url ?? `/traces/${await newTrace(`${format.name} #${w}`, format.traceExtra)}/samples`);
-  const target = (w: number, b: number) => url ?? `${urls[w]}${format.query(b)}`;
+  const targets: ((b: number) => string)[] = [];
+  for (let w = 0; w < WORKERS; w++) targets.push(await batchTarget(format, `${format.name} #${w}`, url));
   // Bodies first (not timed); the first WARMUP_BATCHES of each worker are the warm-up (the server's
   // code compiled and its caches filled, as in a server that has been running).
   const total = WARMUP_BATCHES + format.batchesPerWorker;
-  const bodies = urls.map((_, w) => Array.from({ length: total }, (_, b) => format.body(w, b)));
+  const bodies = targets.map((_, w) => Array.from({ length: total }, (_, b) => format.body(w, b)));
   freshConnections();
   const post = (from: number, to: number) =>
     Promise.all(
-      urls.map(async (_, w) => {
-        for (let b = from; b < to; b++) await ok('POST', target(w, b), bodies[w]![b], format.contentType);
+      targets.map(async (target, w) => {
+        for (let b = from; b < to; b++) await ok('POST', target(b), bodies[w]![b], format.contentType);
       }),
     );
   await post(0, WARMUP_BATCHES);
@@ -242,10 +248,8 @@ async function warmUp(format: Format, seconds: number, url?: string): Promise<vo
   await Promise.all(
     bodies.map(async (mine, w) => {
       while (performance.now() < until) {
-        const target = url ?? `/traces/${await newTrace(`warm-up: ${format.name} #${w}`, format.traceExtra)}/samples`;
-        for (let b = 0; b < WARMUP_BODIES && performance.now() < until; b++) {
-          await ok('POST', url ?? `${target}${format.query(b)}`, mine[b], format.contentType);
-        }
+        const target = await batchTarget(format, `warm-up: ${format.name} #${w}`, url);
+        for (let b = 0; b < WARMUP_BODIES && performance.now() < until; b++) await ok('POST', target(b), mine[b], format.contentType);
       }
     }),
   );
