@@ -261,6 +261,7 @@ export function createTracesService(db: Db, config: Config) {
         }
         if (patch.probe !== undefined) changes.probe = probeSettings(patch.probe);
         if (patch.startTime !== undefined) changes.startTime = patch.startTime === null ? null : new Date(patch.startTime);
+        ingest.forget(id);
         await trace.update(changes);
         // A closed trace's stored analysis depends on these; run it again so it stays true.
         if (trace.status === 'closed' && (patch.probe !== undefined || patch.nominalVoltageV !== undefined || patch.mainsHz !== undefined)) {
@@ -278,6 +279,7 @@ export function createTracesService(db: Db, config: Config) {
     async remove(scope: Scope, id: string): Promise<void> {
       await queue.run(id, async () => {
         const trace = await find(scope, id);
+        ingest.forget(id);
         await trace.destroy();
       });
     },

@@ -1,5 +1,7 @@
+import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mintCredentials } from '../../testing/credentials.js';
 import { makeTestApp, type TestApp } from '../../testing/make-test-app.js';
 
 const T0 = 1_700_000_000_000; // 2023-11-14T22:13:20Z
@@ -196,6 +198,62 @@ describe('POST /api/v1/traces/{id}/samples', () => {
       expect(res.status).toBe(409);
       expect(res.body.detail).toMatch(/closed/);
       expect((await storedCount(closed)).samples).toBe(3);
+    });
+  });
+
+  // The service keeps each trace as its last batch left it, so the next batch need not read the row
+  // (services/traces-ingest.ts, recentTraces). These check that nothing it keeps outlives a change.
+  describe('a trace kept between batches never outlives a change to it', () => {
+    const batch = (from: number) => JSON.stringify({ t: [T0 + from, T0 + from + 1000], a: [1, 2] });
+
+    it('when the trace is closed after a batch, then the next batch gets the closed-trace answer', async () => {
+      const id = await newTrace();
+      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      expect((await request(t.app).post(`/api/v1/traces/${id}/close`).set(auth)).status).toBe(200);
+      const res = await post(id, 'application/json', batch(5000));
+      expect(res.status).toBe(409);
+      expect(res.body.detail).toMatch(/is closed: it takes no more samples/);
+    });
+
+    it('when the trace is deleted after a batch, then the next batch gets 404', async () => {
+      const id = await newTrace();
+      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      expect((await request(t.app).delete(`/api/v1/traces/${id}`).set(auth)).status).toBe(204);
+      expect((await post(id, 'application/json', batch(5000))).status).toBe(404);
+    });
+
+    it('when the start time is changed after a batch, then seconds from the start are read from the new one', async () => {
+      const id = await newTrace();
+      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const startTime = T0 + 60_000;
+      expect((await request(t.app).patch(`/api/v1/traces/${id}`).set(auth).send({ startTime })).status).toBe(200);
+      const res = await post(id, 'application/json', JSON.stringify({ t: [0.5, 1.5], a: [3, 4] }));
+      expect(res.status, JSON.stringify(res.body)).toBe(200);
+      expect(res.body).toMatchObject({ timeFormat: 'seconds', firstTime: startTime + 500, lastTime: startTime + 1500, sampleCount: 4 });
+    });
+
+    it('when the row is changed behind the service, then the next batch is refused with nothing stored and the one after reads the row', async () => {
+      const id = await newTrace();
+      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      await t.db.models.Trace.update({ status: 'closed' }, { where: { id } });
+      const refused = await post(id, 'application/json', batch(5000));
+      expect(refused.status).toBe(409);
+      expect(refused.body.detail).toMatch(/closed, deleted or changed by another batch/);
+      expect((await storedCount(id)).samples).toBe(2);
+      const next = await post(id, 'application/json', batch(9000));
+      expect(next.status).toBe(409);
+      expect(next.body.detail).toMatch(/is closed: it takes no more samples/);
+    });
+
+    it('when another organisation posts to a trace kept from a batch, then 404 and nothing stored', async () => {
+      const id = await newTrace();
+      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const other = randomUUID();
+      await t.db.models.Organisation.create({ id: other, name: 'Another contractor' });
+      const outsider = await mintCredentials(t.app.locals.services, other, 'engineer');
+      const res = await request(t.app).post(`/api/v1/traces/${id}/samples`).set(outsider).set('Content-Type', 'application/json').send(batch(5000));
+      expect(res.status).toBe(404);
+      expect((await storedCount(id)).samples).toBe(2);
     });
   });
 
