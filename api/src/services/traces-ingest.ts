@@ -109,7 +109,8 @@ export function createTraceIngest(deps: IngestDeps) {
    * back to top it up. Valid only while the trace still has the counts it was stored with.
    */
   const lastChunks = new Map<string, { chunkCount: number; sampleCount: number; row: ChunkSummaryRow; data: LastChunkData }>();
-  const LAST_CHUNKS_KEPT = 1000;
+  /** Most traces kept in lastChunks, and in recentTraces; past it the oldest entry goes. */
+  const TRACES_KEPT = 1000;
   /**
    * Traces this process appended to recently, as its last commit left them, so the trace's next batch
    * need not read the row again: under concurrent uploads that read waited its turn in the sqlite3
@@ -125,7 +126,7 @@ export function createTraceIngest(deps: IngestDeps) {
   function rememberTrace(trace: Trace, batch: BatchResult): void {
     trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
     recentTraces.delete(trace.id);
-    if (recentTraces.size >= LAST_CHUNKS_KEPT) recentTraces.delete(recentTraces.keys().next().value as string);
+    if (recentTraces.size >= TRACES_KEPT) recentTraces.delete(recentTraces.keys().next().value as string);
     recentTraces.set(trace.id, trace);
   }
 
@@ -145,7 +146,7 @@ export function createTraceIngest(deps: IngestDeps) {
     const last = writer.lastChunkAfter();
     lastChunks.delete(traceId);
     if (!last) return;
-    if (lastChunks.size >= LAST_CHUNKS_KEPT) lastChunks.delete(lastChunks.keys().next().value as string);
+    if (lastChunks.size >= TRACES_KEPT) lastChunks.delete(lastChunks.keys().next().value as string);
     lastChunks.set(traceId, { chunkCount: batch.state.chunkCount, sampleCount: batch.state.sampleCount, ...last });
   }
 
