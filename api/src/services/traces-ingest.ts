@@ -111,6 +111,18 @@ export function createTraceIngest(deps: IngestDeps) {
   const lastChunks = new Map<string, { chunkCount: number; sampleCount: number; row: ChunkSummaryRow; data: LastChunkData }>();
   /** Most traces kept in lastChunks, and in recentTraces; past it the oldest entry goes. */
   const TRACES_KEPT = 1000;
+
+  /** Keeps `value` as the newest entry of `map`, dropping the oldest one when TRACES_KEPT are kept. */
+  function keepNewest<V>(map: Map<string, V>, traceId: string, value: V): void {
+    map.delete(traceId);
+    if (map.size >= TRACES_KEPT) map.delete(map.keys().next().value as string);
+    map.set(traceId, value);
+  }
+
+  /** Sets the instance's storage fields to the ones a batch committed (the row itself is already written). */
+  function setCommittedState(trace: Trace, batch: BatchResult): void {
+    trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
+  }
   /**
    * Traces this process appended to recently, as its last commit left them, so the trace's next batch
    * need not read the row again: under concurrent uploads that read waited its turn in the sqlite3
@@ -124,10 +136,8 @@ export function createTraceIngest(deps: IngestDeps) {
   const recentTraces = new Map<string, Trace>();
 
   function rememberTrace(trace: Trace, batch: BatchResult): void {
-    trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
-    recentTraces.delete(trace.id);
-    if (recentTraces.size >= TRACES_KEPT) recentTraces.delete(recentTraces.keys().next().value as string);
-    recentTraces.set(trace.id, trace);
+    setCommittedState(trace, batch);
+    keepNewest(recentTraces, trace.id, trace);
   }
 
   function forget(traceId: string): void {
@@ -144,10 +154,11 @@ export function createTraceIngest(deps: IngestDeps) {
 
   function rememberLastChunk(traceId: string, writer: BatchWriter, batch: BatchResult): void {
     const last = writer.lastChunkAfter();
-    lastChunks.delete(traceId);
-    if (!last) return;
-    if (lastChunks.size >= TRACES_KEPT) lastChunks.delete(lastChunks.keys().next().value as string);
-    lastChunks.set(traceId, { chunkCount: batch.state.chunkCount, sampleCount: batch.state.sampleCount, ...last });
+    if (!last) {
+      lastChunks.delete(traceId);
+      return;
+    }
+    keepNewest(lastChunks, traceId, { chunkCount: batch.state.chunkCount, sampleCount: batch.state.sampleCount, ...last });
   }
 
   function replayed(r: Replay) {
@@ -358,7 +369,7 @@ export function createTraceIngest(deps: IngestDeps) {
           201,
           (r, batch) => {
             // The answer shows the trace as the commit leaves it (the instance is not saved from here).
-            trace.set({ ...batch.state, summary: batch.state.summary as unknown as Record<string, unknown> });
+            setCommittedState(trace, batch);
             return { trace: toTraceView(trace), import: r };
           },
           formRead,
