@@ -206,9 +206,15 @@ describe('POST /api/v1/traces/{id}/samples', () => {
   describe('a trace kept between batches never outlives a change to it', () => {
     const batch = (from: number) => JSON.stringify({ t: [T0 + from, T0 + from + 1000], a: [1, 2] });
 
-    it('when the trace is closed after a batch, then the next batch gets the closed-trace answer', async () => {
+    /** A new trace that has taken one batch (two samples), so the service keeps it. */
+    async function traceAfterOneBatch(): Promise<string> {
       const id = await newTrace();
       expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      return id;
+    }
+
+    it('when the trace is closed after a batch, then the next batch gets the closed-trace answer', async () => {
+      const id = await traceAfterOneBatch();
       expect((await request(t.app).post(`/api/v1/traces/${id}/close`).set(auth)).status).toBe(200);
       const res = await post(id, 'application/json', batch(5000));
       expect(res.status).toBe(409);
@@ -216,15 +222,13 @@ describe('POST /api/v1/traces/{id}/samples', () => {
     });
 
     it('when the trace is deleted after a batch, then the next batch gets 404', async () => {
-      const id = await newTrace();
-      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const id = await traceAfterOneBatch();
       expect((await request(t.app).delete(`/api/v1/traces/${id}`).set(auth)).status).toBe(204);
       expect((await post(id, 'application/json', batch(5000))).status).toBe(404);
     });
 
     it('when the start time is changed after a batch, then seconds from the start are read from the new one', async () => {
-      const id = await newTrace();
-      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const id = await traceAfterOneBatch();
       const startTime = T0 + 60_000;
       expect((await request(t.app).patch(`/api/v1/traces/${id}`).set(auth).send({ startTime })).status).toBe(200);
       const res = await post(id, 'application/json', JSON.stringify({ t: [0.5, 1.5], a: [3, 4] }));
@@ -233,8 +237,7 @@ describe('POST /api/v1/traces/{id}/samples', () => {
     });
 
     it('when the row is changed behind the service, then the next batch is refused with nothing stored and the one after reads the row', async () => {
-      const id = await newTrace();
-      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const id = await traceAfterOneBatch();
       await t.db.models.Trace.update({ status: 'closed' }, { where: { id } });
       const refused = await post(id, 'application/json', batch(5000));
       expect(refused.status).toBe(409);
@@ -246,8 +249,7 @@ describe('POST /api/v1/traces/{id}/samples', () => {
     });
 
     it('when another organisation posts to a trace kept from a batch, then 404 and nothing stored', async () => {
-      const id = await newTrace();
-      expect((await post(id, 'application/json', batch(0))).status).toBe(200);
+      const id = await traceAfterOneBatch();
       const other = randomUUID();
       await t.db.models.Organisation.create({ id: other, name: 'Another contractor' });
       const outsider = await mintCredentials(t.app.locals.services, other, 'engineer');
