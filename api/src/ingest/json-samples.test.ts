@@ -82,6 +82,20 @@ describe('JSON sample bodies', () => {
     );
   });
 
+  it('when a body holds more numbers than one read of the number-run reader, in one Buffer or in many, then every sample equals JSON.parse of it', async () => {
+    // source: ECMA-262 JSON.parse, as above. 30,000 pairs (about 600 KB): more than the reader's
+    // output (4,096 values) and input (256 KB) hold at a time, and more than the arrays start with.
+    const t = Array.from({ length: 30_000 }, (_, i) => 1_764_000_000_000 + i * 1.25);
+    const a = t.map((_, i) => Math.round((8 + 4 * Math.sin(i / 900)) * 1000) / 1000 - 6);
+    const body = JSON.stringify({ t, a });
+    for (const size of [body.length, 65_536, 4_099]) {
+      const sink = collect();
+      expect(await readJsonSamples(pieces(body, size), options(), sink)).toBe(t.length);
+      expect(sink.times).toEqual(t.map((x) => Math.round(x * 1000)));
+      expect(sink.values).toEqual(a.map((x) => Math.fround(x)));
+    }
+  });
+
   it('when a bad element sits inside a run of numbers, then the problem names that element wherever the body is cut', async () => {
     // common practice, no source: RFC 9457 problem details point at the first bad element (JSON Pointer, or line and column).
     const cases: Array<[string, { detail: string; pointer?: string; line?: number; column?: number }]> = [
@@ -93,6 +107,11 @@ describe('JSON sample bodies', () => {
       ['{"values":[1,2,3,,5]}', { detail: 'expected a value after ","', line: 1, column: 18 }],
       ['{"values":[1,2,3 4]}', { detail: 'expected "," or "]" in the array', line: 1, column: 18 }],
       ['{"t":[1700000000000,1700000000001,1700000000001],"a":[1,2,3]}', { detail: 'timestamps must increase: this one is not after the previous one', pointer: '/t/2' }],
+      ['{"values":[1,2,3,2000000000000,5]}', { detail: 'larger in magnitude than 1000000000000', pointer: '/values/3' }],
+      // The first problem in the body's order, whichever check finds it.
+      ['{"t":[1700000000000,1700000000000,5],"a":[1,2,3]}', { detail: 'timestamps must increase: this one is not after the previous one', pointer: '/t/1' }],
+      ['{"t":[1700000000000,5,1700000000000],"a":[1,2,3]}', { detail: 'mixed timestamp formats: seconds from the trace start after epoch milliseconds', pointer: '/t/1' }],
+      ['{"t":[1700000000000,1700000000001],"a":[1,2000000000000,3e15]}', { detail: 'larger in magnitude than 1000000000000', pointer: '/a/1' }],
     ];
     for (const [body, expected] of cases) {
       for (const size of [1, 3, 7, 1000]) {

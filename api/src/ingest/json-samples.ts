@@ -10,15 +10,17 @@
  *
  * A byte-level tokenizer written for these two shapes: it keeps its state between the body's
  * Buffers (a token cut by a Buffer boundary is carried over), tracks line and column for errors, and
- * reads numbers without building strings (Clinger's fast path: up to 15 significant digits and a
- * power of ten up to 22 give the correctly rounded double; anything else goes through Number()).
- * Pairs are handed to the writer as soon as both arrays have them, so with `t` before `a` only the
- * timestamps are buffered.
+ * reads numbers without building strings. Runs of plain numbers, the bulk of a body, go to the
+ * WebAssembly number-run reader (number-run.ts); every other element, and every error, is this
+ * reader's (Clinger's fast path: up to 15 significant digits and a power of ten up to 22 give the
+ * correctly rounded double; anything else goes through Number()). Pairs are handed to the writer as
+ * soon as both arrays have them, so with `t` before `a` only the timestamps are buffered.
  */
 import { Problem, type ProblemFieldError } from '../errors/problem.js';
 import { invalidSamples, malformedAt } from './body-errors.js';
-import { parseJsonNumber, scanJsonNumber, type ScannedNumber } from './decimal-text.js';
-import { growableFloat32, growableFloat64, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
+import { parseJsonNumber } from './decimal-text.js';
+import { forgetNumberRunInput, NUMBER_RUN_CAPACITY, numberRunEnd, numberRunValues, readNumberRun } from './number-run.js';
+import { growableFloat32, growableFloat64, MAX_ABS_READING, readingProblem, type SampleSink, type UniformStart } from './sample-sink.js';
 import { TimestampError, type TimestampReader } from './timestamps.js';
 
 export interface JsonSampleOptions {
@@ -68,7 +70,6 @@ class JsonSampleParser {
   private start: UniformStart | null | undefined = undefined;
   private rateHz: number | undefined;
   private pushedUniform = 0;
-  private readonly scanned: ScannedNumber = { value: 0, end: 0 };
 
   constructor(
     private readonly options: JsonSampleOptions,
@@ -112,6 +113,7 @@ class JsonSampleParser {
 
   /** Scans tokens from buf; returns how many bytes were consumed (the rest is an incomplete token). */
   private scan(buf: Buffer, final: boolean): number {
+    forgetNumberRunInput(); // buf may be a Buffer read before, with other bytes now
     let p = 0;
     const end = buf.length;
     while (true) {
@@ -266,30 +268,66 @@ class JsonSampleParser {
   }
 
   /**
-   * The body's bulk, array elements that are plain numbers, read in one pass each: a number followed
-   * at once by "," or "]" within this buffer is read and stored straight away (through addTime or
-   * addValue, the general reader's own checks), and the run goes on to the next element. It stops at
-   * the first element it does not take (whitespace, a string, a literal, a number cut by the buffer's
-   * end or followed by anything else) and leaves that to `item`, which reads it or names the error.
+   * The body's bulk, array elements that are plain numbers, read by the WebAssembly number-run reader
+   * (number-run.ts): a number followed at once by "," or "]" within this buffer is read and stored
+   * (through addTime or addValue, the general reader's own checks, in the body's order), and the run
+   * goes on to the next element. It stops at the first element it does not take (whitespace, a
+   * string, a literal, an exponent, a number cut by the buffer's end, followed by anything else or
+   * not read exactly by the fast path) and leaves that to `item`, which reads it or names the error.
    * Returns the index after the last element taken (p when none was), with the state set for what
    * follows it.
    */
   private numberRun(buf: Buffer, p: number, end: number): number {
-    const out = this.scanned;
     const times = this.key === 't';
-    while (scanJsonNumber(buf, p, end, out) && out.end < end) {
-      const next = buf[out.end] as number;
-      if (next !== 44 && next !== 93) return p;
-      if (times) this.addTime(null, out.value);
-      else this.addValue(out.value);
-      p = out.end + 1;
-      if (next === 93) {
-        this.state = State.CommaOrEnd;
-        return p;
-      }
-      this.state = State.Item;
+    for (;;) {
+      const count = readNumberRun(buf, p, end);
+      if (count === 0) return p;
+      if (times) this.addTimes(count);
+      else this.addValues(count);
+      p = numberRunEnd.stop;
+      this.state = numberRunEnd.closed ? State.CommaOrEnd : State.Item;
+      if (numberRunEnd.closed || count < NUMBER_RUN_CAPACITY) return p;
     }
-    return p;
+  }
+
+  /** The timestamps numberRunValues[0, count): addTime on each, in one loop (the first problem in body order wins). */
+  private addTimes(count: number): void {
+    const at = this.times.length;
+    const out = this.times.extend(count);
+    let failed: TimestampError | null = null;
+    let read = count;
+    try {
+      this.options.timestamps.fromNumbers(numberRunValues, count, out, at);
+    } catch (err) {
+      if (!(err instanceof TimestampError)) throw err;
+      failed = err;
+      read = err.index;
+    }
+    let last = this.lastTimeUs;
+    for (let k = 0; k < read; k++) {
+      const us = out[at + k] as number;
+      if (!(us > last)) this.invalid([{ detail: 'timestamps must increase: this one is not after the previous one', pointer: `/t/${this.timeCount + k}` }]);
+      last = us;
+    }
+    if (failed) this.invalid([{ detail: failed.message, pointer: `/t/${this.timeCount + read}` }]);
+    this.lastTimeUs = last;
+    this.timeCount += count;
+  }
+
+  /** The readings numberRunValues[0, count): addValue on each, in one loop. */
+  private addValues(count: number): void {
+    const at = this.values.length;
+    const out = this.values.extend(count);
+    for (let k = 0; k < count; k++) {
+      const value = numberRunValues[k] as number;
+      // Most readings pass this one comparison; readingProblem names what is wrong with the others.
+      if (!(Math.abs(value) <= MAX_ABS_READING)) {
+        const problem = readingProblem(value);
+        if (problem) this.invalid([{ detail: problem, pointer: `/${this.key}/${this.valueCount + k}` }]);
+      }
+      out[at + k] = value;
+    }
+    this.valueCount += count;
   }
 
   /** One array element at p; returns the index after it, or -1 when incomplete. */

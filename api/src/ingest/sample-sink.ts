@@ -41,6 +41,20 @@ export class GrowableArray<T extends Float32Array | Float64Array> {
     this.data[this.length++] = value;
   }
 
+  /** Makes room for n more values, for the caller to write at [length - n, length): returns the array to write them in. */
+  extend(n: number): T {
+    const needed = this.length + n;
+    if (needed > this.data.length) {
+      let size = this.data.length * 2;
+      while (size < needed) size *= 2;
+      const bigger = this.make(size);
+      bigger.set(this.data.subarray(0, this.length));
+      this.data = bigger;
+    }
+    this.length = needed;
+    return this.data;
+  }
+
   /** A view of values [from, to). */
   view(from = 0, to = this.length): T {
     return this.data.subarray(from, to) as T;

@@ -1,5 +1,6 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { TimestampError, TimestampReader, parseInstantUs, parseUtcOffset } from './timestamps.js';
+import { EPOCH_MS_FROM, EPOCH_S_FROM, TIME_FORMATS, TimestampError, TimestampReader, parseInstantUs, parseUtcOffset, type TimestampOptions } from './timestamps.js';
 
 describe('timestamps', () => {
   it('when date-times are written as loggers write them, then they read as the same instant', () => {
@@ -34,5 +35,43 @@ describe('timestamps', () => {
     expect(parseInstantUs('1700000000000')).toBe(1_700_000_000_000_000);
     expect(parseInstantUs('2023-11-14T22:13:20Z')).toBe(1_700_000_000_000_000);
     expect(parseInstantUs('yesterday')).toBeNull();
+  });
+
+  it('when a run of numbers is read in one loop, then each timestamp and each refusal is the one fromNumber gives', () => {
+    // The loop (fromNumbers, for JSON `t` arrays) must be fromNumber on each value, in order: same µs,
+    // same first error at the same index. Values around each format's detection bounds.
+    const near = (x: number) => fc.oneof(fc.constant(x), fc.double({ min: x - 1e3, max: x + 1e3, noNaN: true }));
+    const value = fc.oneof(near(EPOCH_MS_FROM), near(EPOCH_S_FROM), near(0), fc.double({ noNaN: false }), fc.constantFrom(-0, 1_764_000_000_000.25, Number.MAX_VALUE, -Number.MAX_VALUE));
+    const options = fc.record({
+      format: fc.constantFrom(undefined, ...TIME_FORMATS),
+      traceStartUs: fc.constantFrom(null, 1_764_000_000_000_000),
+      detectEpochSeconds: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(options, fc.array(value, { minLength: 1, maxLength: 12 }), (opts: TimestampOptions, values) => {
+        const one = new TimestampReader(opts);
+        const expected: number[] = [];
+        let error: { message: string; index: number } | null = null;
+        for (const [index, v] of values.entries()) {
+          try {
+            expected.push(one.fromNumber(v));
+          } catch (err) {
+            error = { message: (err as Error).message, index };
+            break;
+          }
+        }
+        const out = new Float64Array(values.length + 2);
+        let thrown: { message: string; index: number } | null = null;
+        try {
+          new TimestampReader(opts).fromNumbers(Float64Array.from(values), values.length, out, 2);
+        } catch (err) {
+          expect(err).toBeInstanceOf(TimestampError);
+          thrown = { message: (err as TimestampError).message, index: (err as TimestampError).index };
+        }
+        expect(thrown).toEqual(error);
+        for (const [k, us] of expected.entries()) expect(Object.is(out[2 + k], us), `value ${k}`).toBe(true);
+      }),
+      { numRuns: 3000 },
+    );
   });
 });
