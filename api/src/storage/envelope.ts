@@ -6,7 +6,8 @@
  * - samples: fewer than 64 samples per bucket: the samples themselves;
  * - blocks: the stored envelope of each chunk (min/max/mean per 64 samples);
  * - chunks: the chunk summary rows.
- * The two edge chunks, partly outside the window, are always read sample by sample. Buckets hold
+ * The two edge chunks, partly outside the window, are always read from their samples (at block level
+ * in pieces ending at the chunk's 64-sample block boundaries, as its stored envelope). Buckets hold
  * equal numbers of samples (not equal time). A gap (an interval longer than the trace's gap
  * threshold) ends a bucket and is shown as an empty bucket (count 0, null values) spanning it, so a
  * chart breaks its line there instead of bridging the gap (while gaps are few; with very many gaps
@@ -91,6 +92,32 @@ class BucketBuilder {
   }
 }
 
+/**
+ * Adds samples [from, to) of a chunk in pieces that end at its 64-sample block boundaries (the stored
+ * envelope's), or earlier at a gap: for the edge chunks of a window read at block level, where buckets
+ * hold at least a block anyway. One add per piece instead of one per sample; the gaps split as before.
+ */
+function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number, splitGapUs: number | null): void {
+  const { values, timesUs } = chunk;
+  let i = from;
+  while (i < to) {
+    const blockEnd = Math.min(to, (Math.floor(i / ENVELOPE_BLOCK_SAMPLES) + 1) * ENVELOPE_BLOCK_SAMPLES);
+    const first = i;
+    let v = values[i] as number;
+    let min = v;
+    let max = v;
+    let sum = v;
+    for (i++; i < blockEnd; i++) {
+      if (splitGapUs !== null && (timesUs[i] as number) - (timesUs[i - 1] as number) > splitGapUs) break;
+      v = values[i] as number;
+      if (v < min) min = v;
+      if (v > max) max = v;
+      sum += v;
+    }
+    builder.add(timesUs[first] as number, timesUs[i - 1] as number, i - first, min, max, sum);
+  }
+}
+
 function addSamples(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number): void {
   for (let i = from; i < to; i++) {
     const v = chunk.values[i] as number;
@@ -172,6 +199,7 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
     const edge = edges.get(row.seq);
     if (edge) {
       if (level === 'chunks') addPartialChunk(builder, edge.chunk, edge.from, edge.to);
+      else if (level === 'blocks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, splitGaps ? gapUs : null);
       else addSamples(builder, edge.chunk, edge.from, edge.to);
     } else if (level === 'samples') {
       const chunk = interiorBySeq.get(row.seq) as DecodedChunk;

@@ -118,6 +118,29 @@ describe.each([
     );
   });
 
+  it('when a window read by 64-sample blocks starts in a chunk with a gap, then the envelope breaks at the gap there too', async () => {
+    // common practice, no source: a chart envelope shows a gap in the recording as a break (an empty
+    // bucket spanning it), never as a line across it; the edge chunks of a window are read from their
+    // samples in block-sized pieces that must still end at a gap.
+    const trace = await makeTrace(db);
+    const n = 3 * CHUNK_SAMPLES;
+    const t0 = 1_700_000_000_000_000;
+    const timesUs = Float64Array.from({ length: n }, (_, i) => t0 + i * 1000 + (i > 5000 ? 1_000_000 : 0)); // 1 ms apart, 1 s missing after 5000
+    const values = Float32Array.from({ length: n }, (_, i) => Math.fround(5 + Math.sin(i / 50)));
+    await appendExplicit(store, trace, values, timesUs);
+    const from = 4500; // in the second chunk (4,096-8,191), before the gap
+    const to = 12_000; // in the third
+    const env = await envelope(store, storedTrace(trace), timesUs[from] as number, timesUs[to - 1] as number, 50);
+    expect(env.level).toBe('blocks');
+    expect(env.sampleCount).toBe(to - from);
+    const gap = env.buckets.count.indexOf(0);
+    expect(gap).toBeGreaterThan(0);
+    expect([env.buckets.startUs[gap], env.buckets.endUs[gap], env.buckets.min[gap]]).toEqual([timesUs[5000], timesUs[5001], null]);
+    expect(env.buckets.endUs[gap - 1]).toBe(timesUs[5000]);
+    expect(env.buckets.startUs[gap + 1]).toBe(timesUs[5001]);
+    expect(env.buckets.count.reduce((x, y) => x + y, 0)).toBe(to - from);
+  });
+
   it('when a uniform run arrives in batches, then small batches top up the last chunk, large ones start their own, and statistics equal the direct computation', async () => {
     const trace = await makeTrace(db, 1000);
     const n = 3 * CHUNK_SAMPLES + 123;
