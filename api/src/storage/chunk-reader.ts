@@ -15,21 +15,27 @@ export interface DecodedChunk {
   timesUs: Float64Array;
 }
 
+/** Time (µs) of sample `offset + index` of a uniform run that starts at startUs. */
+function uniformRunTimeUs(startUs: number, offset: number, rateHz: number, index: number): number {
+  return startUs + ((offset + index) * 1e6) / rateHz;
+}
+
 /** Time (µs) of sample `index` of a uniform chunk. */
 export function uniformTimeUs(row: ChunkSummaryRow, index: number): number {
-  return (row.runStartUs as number) + (((row.runOffset as number) + index) * 1e6) / (row.rateHz as number);
+  return uniformRunTimeUs(row.runStartUs as number, row.runOffset as number, row.rateHz as number, index);
 }
 
 /** Times (µs) of every sample of a chunk. */
 export function chunkTimesUs(row: ChunkSummaryRow, data: ChunkData): Float64Array {
   if (row.encoding === 'explicit') return decodeTimes(data.times ?? Buffer.alloc(0), row.firstUs, row.count);
-  // uniformTimeUs with the row's fields read once (the same arithmetic, so the same times): a window's
-  // edge chunks are decoded for every chart request, and reading them per sample cost 0.1 ms a chunk.
+  // The row's fields read once: a window's edge chunks are decoded for every chart request, and in
+  // the server (rows of several shapes) reading them per sample made a 1 % window's two edge chunks
+  // cost 0.25 ms instead of 0.20.
   const startUs = row.runStartUs as number;
   const offset = row.runOffset as number;
   const rateHz = row.rateHz as number;
   const out = new Float64Array(row.count);
-  for (let i = 0; i < out.length; i++) out[i] = startUs + ((offset + i) * 1e6) / rateHz;
+  for (let i = 0; i < out.length; i++) out[i] = uniformRunTimeUs(startUs, offset, rateHz, i);
   return out;
 }
 
