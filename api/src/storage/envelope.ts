@@ -93,21 +93,22 @@ class BucketBuilder {
 }
 
 /**
- * Adds samples [from, to) of a chunk in pieces that end at its 64-sample block boundaries (the stored
- * envelope's), or earlier at a gap: for the edge chunks of a window read at block level, where buckets
- * hold at least a block anyway. One add per piece instead of one per sample; the gaps split as before.
+ * Adds samples [from, to) of a chunk in pieces that end at multiples of `pieceSamples` in the chunk, or
+ * earlier at a gap when `splitGapUs` is given: for a window's edge chunks at block level (pieces of a
+ * 64-sample block, as the stored envelope, splitting at gaps) and at chunk level (one piece). One add
+ * per piece instead of one per sample.
  */
-function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number, splitGapUs: number | null): void {
+function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number, pieceSamples: number, splitGapUs: number | null): void {
   const { values, timesUs } = chunk;
   let i = from;
   while (i < to) {
-    const blockEnd = Math.min(to, (Math.floor(i / ENVELOPE_BLOCK_SAMPLES) + 1) * ENVELOPE_BLOCK_SAMPLES);
+    const pieceEnd = Math.min(to, (Math.floor(i / pieceSamples) + 1) * pieceSamples);
     const first = i;
     let v = values[i] as number;
     let min = v;
     let max = v;
     let sum = v;
-    for (i++; i < blockEnd; i++) {
+    for (i++; i < pieceEnd; i++) {
       if (splitGapUs !== null && (timesUs[i] as number) - (timesUs[i - 1] as number) > splitGapUs) break;
       v = values[i] as number;
       if (v < min) min = v;
@@ -198,8 +199,8 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   for (const row of rows) {
     const edge = edges.get(row.seq);
     if (edge) {
-      if (level === 'chunks') addPartialChunk(builder, edge.chunk, edge.from, edge.to);
-      else if (level === 'blocks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, splitGaps ? gapUs : null);
+      if (level === 'chunks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, CHUNK_SAMPLES, null);
+      else if (level === 'blocks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, ENVELOPE_BLOCK_SAMPLES, splitGaps ? gapUs : null);
       else addSamples(builder, edge.chunk, edge.from, edge.to);
     } else if (level === 'samples') {
       const chunk = interiorBySeq.get(row.seq) as DecodedChunk;
@@ -214,21 +215,6 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   }
   builder.flush();
   return { level, sampleCount, buckets: builder.out };
-}
-
-/** Adds the part of an edge chunk inside the window as one piece (chunk level). */
-function addPartialChunk(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number): void {
-  if (from >= to) return;
-  let min = Number.POSITIVE_INFINITY;
-  let max = Number.NEGATIVE_INFINITY;
-  let sum = 0;
-  for (let i = from; i < to; i++) {
-    const v = chunk.values[i] as number;
-    if (v < min) min = v;
-    if (v > max) max = v;
-    sum += v;
-  }
-  builder.add(chunk.timesUs[from] as number, chunk.timesUs[to - 1] as number, to - from, min, max, sum);
 }
 
 /** Min, max and mean of a series (times in µs) within each bucket's time span; null where a bucket holds none. */
