@@ -33,26 +33,25 @@ export class GrowableArray<T extends Float32Array | Float64Array> {
   }
 
   push(value: number): void {
-    if (this.length === this.data.length) {
-      const bigger = this.make(this.data.length * 2);
-      bigger.set(this.data);
-      this.data = bigger;
-    }
+    if (this.length === this.data.length) this.grow(this.length + 1);
     this.data[this.length++] = value;
   }
 
   /** Makes room for n more values, for the caller to write at [length - n, length): returns the array to write them in. */
   extend(n: number): T {
     const needed = this.length + n;
-    if (needed > this.data.length) {
-      let size = this.data.length * 2;
-      while (size < needed) size *= 2;
-      const bigger = this.make(size);
-      bigger.set(this.data.subarray(0, this.length));
-      this.data = bigger;
-    }
+    if (needed > this.data.length) this.grow(needed);
     this.length = needed;
     return this.data;
+  }
+
+  /** A backing array of at least `needed` values (doubling), holding the values so far. */
+  private grow(needed: number): void {
+    let size = Math.max(1, this.data.length * 2);
+    while (size < needed) size *= 2;
+    const bigger = this.make(size);
+    bigger.set(this.data.subarray(0, this.length));
+    this.data = bigger;
   }
 
   /** A view of values [from, to). */
