@@ -47,6 +47,9 @@ const enum State {
   Done,
 }
 
+/** Why a timestamp is refused when it does not come after the one before. */
+const NOT_INCREASING = 'timestamps must increase: this one is not after the previous one';
+
 /** A token longer than this (bytes) is refused rather than carried over without bound. */
 const MAX_TOKEN_BYTES = 4096;
 
@@ -82,6 +85,16 @@ class JsonSampleParser {
 
   private invalid(errors: ProblemFieldError[]): never {
     throw invalidSamples(errors);
+  }
+
+  /** Refuses timestamp `index` of `t` (counted from the body's first). */
+  private badTime(detail: string, index: number): never {
+    return this.invalid([{ detail, pointer: `/t/${index}` }]);
+  }
+
+  /** Refuses reading `index` of the current array (`a` or `values`). */
+  private badReading(detail: string, index: number): never {
+    return this.invalid([{ detail, pointer: `/${this.key}/${index}` }]);
   }
 
   async feed(chunk: Buffer): Promise<void> {
@@ -306,10 +319,10 @@ class JsonSampleParser {
     let last = this.lastTimeUs;
     for (let k = 0; k < read; k++) {
       const us = out[at + k] as number;
-      if (!(us > last)) this.invalid([{ detail: 'timestamps must increase: this one is not after the previous one', pointer: `/t/${this.timeCount + k}` }]);
+      if (!(us > last)) this.badTime(NOT_INCREASING, this.timeCount + k);
       last = us;
     }
-    if (failed) this.invalid([{ detail: failed.message, pointer: `/t/${this.timeCount + read}` }]);
+    if (failed) this.badTime(failed.message, this.timeCount + read);
     this.lastTimeUs = last;
     this.timeCount += count;
   }
@@ -323,7 +336,7 @@ class JsonSampleParser {
       // Most readings pass this one comparison; readingProblem names what is wrong with the others.
       if (!(Math.abs(value) <= MAX_ABS_READING)) {
         const problem = readingProblem(value);
-        if (problem) this.invalid([{ detail: problem, pointer: `/${this.key}/${this.valueCount + k}` }]);
+        if (problem) this.badReading(problem, this.valueCount + k);
       }
       out[at + k] = value;
     }
@@ -364,12 +377,10 @@ class JsonSampleParser {
     try {
       us = text !== null ? this.options.timestamps.fromText(text) : this.options.timestamps.fromNumber(value as number);
     } catch (err) {
-      if (err instanceof TimestampError) this.invalid([{ detail: err.message, pointer: `/t/${index}` }]);
+      if (err instanceof TimestampError) this.badTime(err.message, index);
       throw err;
     }
-    if (!(us > this.lastTimeUs)) {
-      this.invalid([{ detail: 'timestamps must increase: this one is not after the previous one', pointer: `/t/${index}` }]);
-    }
+    if (!(us > this.lastTimeUs)) this.badTime(NOT_INCREASING, index);
     this.lastTimeUs = us;
     this.times.push(us);
     this.timeCount++;
@@ -377,7 +388,7 @@ class JsonSampleParser {
 
   private addValue(value: number): void {
     const problem = readingProblem(value);
-    if (problem) this.invalid([{ detail: problem, pointer: `/${this.key}/${this.valueCount}` }]);
+    if (problem) this.badReading(problem, this.valueCount);
     this.values.push(value);
     this.valueCount++;
   }
