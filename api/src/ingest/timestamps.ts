@@ -107,7 +107,7 @@ export class TimestampReader {
     if (options.format !== undefined) this.linear = this.linearTime(options.format);
   }
 
-  /** The numbers `format` accepts as a linear map to µs: fromNumber's cases, with the values that stay in the format. */
+  /** The numbers `format` takes as a linear map to µs (null for the text formats, or seconds without a start time). */
   private linearTime(format: TimeFormat): LinearTime | null {
     // A fixed format takes any finite number; a detected one only the numbers it is detected from.
     const any = { from: -Number.MAX_VALUE, to: Number.POSITIVE_INFINITY };
@@ -155,22 +155,14 @@ export class TimestampReader {
   fromNumber(value: number): number {
     if (!Number.isFinite(value)) throw new TimestampError('the timestamp is not a finite number');
     const format = this.fixed ? (this.format as TimeFormat) : this.settle(this.numericFormat(value));
-    switch (format) {
-      case 'epoch-ms':
-        if (!this.fixed && value < EPOCH_MS_FROM) throw new TimestampError(`mixed timestamp formats: ${value} is not epoch milliseconds like the first timestamp`);
-        return Math.round(value * 1000);
-      case 'epoch-s':
-        return Math.round(value * 1e6);
-      case 'seconds': {
-        if (!this.fixed && value >= EPOCH_MS_FROM) throw new TimestampError('mixed timestamp formats: epoch milliseconds after seconds from the trace start');
-        if (this.options.traceStartUs === null) {
-          throw new TimestampError('seconds from the trace start need the trace\'s startTime; set it, or send epoch milliseconds or ISO 8601');
-        }
-        return Math.round(this.options.traceStartUs + value * 1e6);
-      }
-      default:
-        throw new TimestampError(`expected ${describe(format)}, got a number`);
+    // settle holds a detected format to the numbers it is detected from, and a fixed one takes any
+    // finite number: the settled format's linear map takes this value whenever it has one.
+    const linear = this.linear;
+    if (linear !== null && value >= linear.from && value < linear.to) return Math.round(linear.offsetUs + value * linear.scale);
+    if (format === 'seconds') {
+      throw new TimestampError('seconds from the trace start need the trace\'s startTime; set it, or send epoch milliseconds or ISO 8601');
     }
+    throw new TimestampError(`expected ${describe(format)}, got a number`);
   }
 
   /**
@@ -184,7 +176,8 @@ export class TimestampReader {
       for (; k < count; k++) {
         const value = values[k] as number;
         const linear = this.linear;
-        // Two stores, not one of a conditional: V8 then keeps the fast one's double unboxed.
+        // fromNumber's linear map written out here, and two stores, not one of a conditional: V8 then
+        // keeps the fast one's double unboxed.
         if (linear !== null && value >= linear.from && value < linear.to) out[at + k] = Math.round(linear.offsetUs + value * linear.scale);
         else out[at + k] = this.fromNumber(value);
       }
