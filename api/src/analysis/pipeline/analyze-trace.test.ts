@@ -87,9 +87,13 @@ describe('analyzeTrace on rms traces (properties)', () => {
     );
   });
 
+  // k is a power of two: scaling by one is exact in binary floating point (IEEE 754), so every
+  // comparison in the analysis keeps its outcome. With any other k, two readings one ulp apart can
+  // round to equal values and move the peak (seed 917311162 found such a pair), which changes the
+  // event itself, not its scale.
   it('scaling the current by k scales amps by k and I²t by k²; times stay', () => {
     fc.assert(
-      fc.property(trace, fc.double({ min: 0.1, max: 50, noNaN: true }), ({ t, a }, k) => {
+      fc.property(trace, fc.integer({ min: -3, max: 5 }).map((j) => 2 ** j), ({ t, a }, k) => {
         const base = analyzeTrace({ kind: 'rms', samples: a, timestampsS: t }, relativeOnly);
         const scaled = analyzeTrace({ kind: 'rms', samples: a.map((v) => v * k), timestampsS: t }, relativeOnly);
         const near = (x: number, y: number, tol = 1e-9): void => expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(1, Math.abs(y)));
