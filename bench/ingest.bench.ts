@@ -13,7 +13,10 @@
  * 2. Query latency on a 10,000,000-sample trace and on a 100-sample trace: `series?points=1000` of the
  *    whole range and of a 1 % window at a random place, and `stats` of a random window (medians and
  *    p95 of QUERY_RUNS sequential requests after warm-up, request sent to last byte received, the two
- *    traces in turns of 10 requests), with the 10M / 100 ratio.
+ *    traces in turns of 10 requests), with the 10M / 100 ratio and the median size of the answers. For
+ *    comparison, the 1 % window again with `points=100`: the 10M trace's window fills all the buckets
+ *    it is given and the 100-sample trace's holds one sample, so this row shows how much of the ratio
+ *    is the size of the answer rather than the length of the trace.
  * 3. Peak RSS of a fresh server process while one request streams 100,000,000 float32 samples (400 MB),
  *    sampled from /proc every 20 ms.
  * Targets (issue 4): binary ≥ 10 M samples/s, JSON ≥ 5 M/s, CSV and NDJSON ≥ 1 M/s; series and stats
@@ -301,17 +304,36 @@ async function jsonFloorRate(format: Format): Promise<number> {
 interface Latency {
   median: number;
   p95: number;
+  /** Median size of the answers: bytes, and buckets for a series. */
+  bytes: number;
+  buckets: number | null;
+}
+
+interface Timed {
+  ms: number;
+  bytes: number;
+  buckets: number | null;
 }
 
 /** Time of one GET (ms): from sending the request to the last byte of the answer, as HTTP load tools measure it. */
-async function timedGet(u: string): Promise<number> {
+async function timedGet(u: string): Promise<Timed> {
   const t0 = performance.now();
   const res = await send('GET', u);
   const ms = res.endedAt - t0;
   // The clock stops at the last byte; turning the bytes into text and parsing it is the client's work.
   if (res.status !== 200) throw new Error(`GET ${u}: ${res.status} ${res.text.slice(0, 500)}`);
-  JSON.parse(res.text);
-  return ms;
+  const body = JSON.parse(res.text) as { t?: unknown[] };
+  return { ms, bytes: Buffer.byteLength(res.text), buckets: Array.isArray(body.t) ? body.t.length : null };
+}
+
+function latency(runs: Timed[]): Latency {
+  const buckets = runs.map((r) => r.buckets).filter((b): b is number => b !== null);
+  return {
+    median: median(runs.map((r) => r.ms)),
+    p95: p95(runs.map((r) => r.ms)),
+    bytes: median(runs.map((r) => r.bytes)),
+    buckets: buckets.length > 0 ? median(buckets) : null,
+  };
 }
 
 /**
@@ -325,13 +347,13 @@ async function latencyPair(big: () => string, small: () => string): Promise<{ bi
     await ok('GET', big());
     await ok('GET', small());
   }
-  const bigMs: number[] = [];
-  const smallMs: number[] = [];
+  const bigRuns: Timed[] = [];
+  const smallRuns: Timed[] = [];
   for (let i = 0; i < QUERY_RUNS; i += 10) {
-    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) bigMs.push(await timedGet(big()));
-    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) smallMs.push(await timedGet(small()));
+    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) bigRuns.push(await timedGet(big()));
+    for (let k = i; k < Math.min(QUERY_RUNS, i + 10); k++) smallRuns.push(await timedGet(small()));
   }
-  return { big: { median: median(bigMs), p95: p95(bigMs) }, small: { median: median(smallMs), p95: p95(smallMs) } };
+  return { big: latency(bigRuns), small: latency(smallRuns) };
 }
 
 interface QueryTrace {
@@ -350,6 +372,8 @@ async function queryFigures(big: QueryTrace, small: QueryTrace) {
   return {
     seriesWhole: await both((t) => `/traces/${t.id}/series?points=1000`),
     seriesWindow: await both((t) => `/traces/${t.id}/series?points=1000&${random(t, 0.01)}`),
+    // The same windows in at most 100 buckets: how much of the ratio above is the answer's size.
+    seriesWindow100: await both((t) => `/traces/${t.id}/series?points=100&${random(t, 0.01)}`),
     statsWindow: await both((t) => `/traces/${t.id}/stats?${random(t, 0.05 + Math.random() * 0.9)}`),
   };
 }
@@ -446,13 +470,17 @@ async function main() {
     const rows: Array<[string, keyof typeof figures]> = [
       ['series?points=1000, whole range', 'seriesWhole'],
       ['series?points=1000, 1 % window', 'seriesWindow'],
+      ['series?points=100, 1 % window', 'seriesWindow100'],
       ['stats, random window', 'statsWindow'],
     ];
     for (const [label, key] of rows) {
       const { big: b, small: s } = figures[key];
+      const target = key === 'seriesWindow100' ? 'no target, for comparison)' : `target ≤ 2), ${b.median < 20 ? 'under' : 'OVER'} 20 ms`;
+      const size = (l: Latency) => `${(l.bytes / 1000).toFixed(1)} kB${l.buckets !== null ? `, ${l.buckets} bucket${l.buckets === 1 ? '' : 's'}` : ''}`;
       console.log(
-        `   ${label.padEnd(34)} 10M ${b.median.toFixed(2).padStart(6)} / ${b.p95.toFixed(2).padStart(6)}   100 ${s.median.toFixed(2).padStart(6)} / ${s.p95.toFixed(2).padStart(6)}   ratio ${(b.median / s.median).toFixed(2)} (target ≤ 2), ${b.median < 20 ? 'under' : 'OVER'} 20 ms`,
+        `   ${label.padEnd(34)} 10M ${b.median.toFixed(2).padStart(6)} / ${b.p95.toFixed(2).padStart(6)}   100 ${s.median.toFixed(2).padStart(6)} / ${s.p95.toFixed(2).padStart(6)}   ratio ${(b.median / s.median).toFixed(2)} (${target}`,
       );
+      console.log(`   ${''.padEnd(34)} answers: 10M ${size(b)}; 100 ${size(s)}`);
     }
 
     await server.kill('SIGTERM');
