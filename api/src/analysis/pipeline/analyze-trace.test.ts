@@ -87,8 +87,8 @@ describe('analyzeTrace on rms traces (properties)', () => {
     );
   });
 
-  // k is a power of two: scaling by one is exact in binary floating point (IEEE 754), so every
-  // comparison in the analysis keeps its outcome. With any other k, two readings one ulp apart can
+  // k is a power of two: scaling by a power of two is exact in binary floating point (IEEE 754) while
+  // nothing under- or overflows, so every comparison in the analysis keeps its outcome. With any other k, two readings one ulp apart can
   // round to equal values and move the peak (seed 917311162 found such a pair), which changes the
   // event itself, not its scale.
   it('scaling the current by k scales amps by k and I²t by k²; times stay', () => {
