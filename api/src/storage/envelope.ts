@@ -94,9 +94,9 @@ class BucketBuilder {
 
 /**
  * Adds samples [from, to) of a chunk in pieces that end at multiples of `pieceSamples` in the chunk, or
- * earlier at a gap when `splitGapUs` is given: for a window's edge chunks at block level (pieces of a
- * 64-sample block, as the stored envelope, splitting at gaps) and at chunk level (one piece). One add
- * per piece instead of one per sample.
+ * earlier at a gap when `splitGapUs` is given: at sample level one sample a piece; for a window's edge
+ * chunks at block level pieces of a 64-sample block, as the stored envelope, splitting at gaps; at
+ * chunk level one piece. One add per piece instead of one per sample.
  */
 function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number, pieceSamples: number, splitGapUs: number | null): void {
   const { values, timesUs } = chunk;
@@ -116,14 +116,6 @@ function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: numb
       sum += v;
     }
     builder.add(timesUs[first] as number, timesUs[i - 1] as number, i - first, min, max, sum);
-  }
-}
-
-function addSamples(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number): void {
-  for (let i = from; i < to; i++) {
-    const v = chunk.values[i] as number;
-    const t = chunk.timesUs[i] as number;
-    builder.add(t, t, 1, v, v, v);
   }
 }
 
@@ -201,10 +193,10 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
     if (edge) {
       if (level === 'chunks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, CHUNK_SAMPLES, null);
       else if (level === 'blocks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, ENVELOPE_BLOCK_SAMPLES, splitGaps ? gapUs : null);
-      else addSamples(builder, edge.chunk, edge.from, edge.to);
+      else addSamplePieces(builder, edge.chunk, edge.from, edge.to, 1, null);
     } else if (level === 'samples') {
       const chunk = interiorBySeq.get(row.seq) as DecodedChunk;
-      addSamples(builder, chunk, 0, row.count);
+      addSamplePieces(builder, chunk, 0, row.count, 1, null);
     } else if (level === 'blocks') {
       const blobs = blobsBySeq.get(row.seq);
       if (!blobs) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no envelope`);
