@@ -86,13 +86,18 @@ export async function readEdgeData(store: ChunkStore, traceId: string, rows: Chu
   return bySeq;
 }
 
-/** Decoded chunks seq ∈ [fromSeq, toSeq], read in groups so memory stays bounded by the caller's use. */
+/**
+ * The decoded chunks of `rows` (in seq order), read in groups so memory stays bounded by the caller's
+ * use: a run of consecutive chunks by its seq range, scattered chunks by their seqs (never the ones
+ * between).
+ */
 export async function* readChunks(store: ChunkStore, traceId: string, rows: ChunkSummaryRow[], groupSize = 64): AsyncGenerator<DecodedChunk> {
   for (let start = 0; start < rows.length; start += groupSize) {
     const group = rows.slice(start, start + groupSize);
     const first = group[0] as ChunkSummaryRow;
     const last = group[group.length - 1] as ChunkSummaryRow;
-    const data = await store.readData(traceId, first.seq, last.seq);
+    const consecutive = last.seq - first.seq + 1 === group.length;
+    const data = consecutive ? await store.readData(traceId, first.seq, last.seq) : await store.readDataOf(traceId, group.map((row) => row.seq));
     const bySeq = new Map(data.map((d) => [d.seq, d]));
     for (const row of group) {
       const d = bySeq.get(row.seq);

@@ -7,7 +7,8 @@
  * - blocks: the stored envelope of each chunk (min/max/mean per 64 samples);
  * - chunks: the chunk summary rows.
  * The two edge chunks, partly outside the window, are always read from their samples (at block level
- * in pieces ending at the chunk's 64-sample block boundaries, as its stored envelope). Buckets hold
+ * in pieces ending at the chunk's 64-sample block boundaries, as its stored envelope), and so are the
+ * interior chunks with a gap inside while gaps split buckets (see below). Buckets hold
  * equal numbers of samples (not equal time). A gap (an interval longer than the trace's gap
  * threshold) ends a bucket and is shown as an empty bucket (count 0, null values) spanning it, so a
  * chart breaks its line there instead of bridging the gap (while gaps are few; with very many gaps
@@ -177,6 +178,13 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   const builder = new BucketBuilder(target, splitGaps ? gapUs : null);
 
   const interior = rows.filter((r) => !edges.has(r.seq));
+  // Interior chunks with a gap inside are read from their samples when gaps split buckets: a stored
+  // block or chunk summary spanning the gap cannot end a bucket there. Gaps are few when they split
+  // (at most points / 4), and so are these chunks.
+  const splitsInside = splitGaps && level !== 'samples' ? interior.filter((r) => r.gapCount > 0) : [];
+  const withGapInside = new Set(splitsInside.map((r) => r.seq));
+  const gapChunks = readChunks(store, trace.traceId, splitsInside, 16);
+  const pieceSamples = level === 'blocks' ? ENVELOPE_BLOCK_SAMPLES : CHUNK_SAMPLES;
   const interiorBySeq = new Map<number, DecodedChunk>();
   const blobsBySeq = new Map<number, { envelope: Buffer; times: Buffer | null }>();
   if (level === 'samples' && interior.length > 0) {
@@ -191,9 +199,12 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   for (const row of rows) {
     const edge = edges.get(row.seq);
     if (edge) {
-      if (level === 'chunks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, CHUNK_SAMPLES, null);
-      else if (level === 'blocks') addSamplePieces(builder, edge.chunk, edge.from, edge.to, ENVELOPE_BLOCK_SAMPLES, splitGaps ? gapUs : null);
-      else addSamplePieces(builder, edge.chunk, edge.from, edge.to, 1, null);
+      if (level === 'samples') addSamplePieces(builder, edge.chunk, edge.from, edge.to, 1, null);
+      else addSamplePieces(builder, edge.chunk, edge.from, edge.to, pieceSamples, splitGaps ? gapUs : null);
+    } else if (withGapInside.has(row.seq)) {
+      const next = await gapChunks.next();
+      if (next.done || next.value.row.seq !== row.seq) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} was not read`);
+      addSamplePieces(builder, next.value, 0, row.count, pieceSamples, gapUs);
     } else if (level === 'samples') {
       const chunk = interiorBySeq.get(row.seq) as DecodedChunk;
       addSamplePieces(builder, chunk, 0, row.count, 1, null);

@@ -141,6 +141,37 @@ describe.each([
     expect(env.buckets.count.reduce((x, y) => x + y, 0)).toBe(to - from);
   });
 
+  it.each([
+    ['blocks', 100],
+    ['chunks', 12],
+  ] as const)('when a gap lies inside a chunk in the middle of the window (read by %s), then the envelope breaks at the gap there too', async (level, points) => {
+    // common practice, no source: as above; here the gap falls inside a stored 64-sample block (after
+    // sample 2 of the block 64·156..64·157) of a chunk wholly inside the window, whose stored block
+    // envelope or summary spans the gap and cannot end a bucket there.
+    const trace = await makeTrace(db);
+    const n = 12 * CHUNK_SAMPLES;
+    const at = 64 * 156 + 2; // 9,986: in chunk 2 (samples 8,192–12,287)
+    const t0 = 1_700_000_000_000_000;
+    const timesUs = Float64Array.from({ length: n }, (_, i) => t0 + i * 1000 + (i > at ? 3_000_000 : 0)); // 1 ms apart, 3 s missing
+    const values = Float32Array.from({ length: n }, (_, i) => Math.fround(5 + Math.sin(i / 50) + (i === at ? 4 : 0) + (i === at + 1 ? -4 : 0)));
+    await appendExplicit(store, trace, values, timesUs);
+    const from = 100;
+    const to = n - 100;
+    const env = await envelope(store, storedTrace(trace), timesUs[from] as number, timesUs[to - 1] as number, points);
+    expect(env.level).toBe(level);
+    expect(env.buckets.count.length).toBeLessThanOrEqual(points);
+    expect(env.buckets.count.reduce((x, y) => x + y, 0)).toBe(to - from);
+    const gap = env.buckets.count.indexOf(0);
+    expect(gap).toBeGreaterThan(0);
+    expect(env.buckets.count.lastIndexOf(0)).toBe(gap);
+    expect([env.buckets.startUs[gap], env.buckets.endUs[gap], env.buckets.min[gap]]).toEqual([timesUs[at], timesUs[at + 1], null]);
+    expect(env.buckets.endUs[gap - 1]).toBe(timesUs[at]);
+    expect(env.buckets.startUs[gap + 1]).toBe(timesUs[at + 1]);
+    // The spike just before the gap stays in the bucket it ends; the dip just after starts the next.
+    expect(env.buckets.max[gap - 1]).toBe(values[at]);
+    expect(env.buckets.min[gap + 1]).toBe(values[at + 1]);
+  });
+
   it('when a uniform run arrives in batches, then small batches top up the last chunk, large ones start their own, and statistics equal the direct computation', async () => {
     const trace = await makeTrace(db, 1000);
     const n = 3 * CHUNK_SAMPLES + 123;
