@@ -152,8 +152,6 @@ export function createTraceQueries(deps: { db: Db; store: ChunkStore; find: (sco
         level: env?.level ?? 'samples',
         sampleCount: env?.sampleCount ?? 0,
         t: startUs.map((s, k) => (s + (endUs[k] as number)) / 2000),
-        startTime: startUs.map((s) => s / 1000),
-        endTime: endUs.map((s) => s / 1000),
         count: b?.count ?? [],
         min: scaled(b?.min ?? []),
         max: scaled(b?.max ?? []),

@@ -1534,11 +1534,9 @@ export interface components {
              */
             level: "samples" | "blocks" | "chunks";
             sampleCount: number;
-            /** @description Middle of each bucket, epoch ms */
+            /** @description Middle of each bucket (halfway between its first and last sample; a gap's middle for an empty bucket), epoch ms */
             t: number[];
-            startTime: number[];
-            endTime: number[];
-            /** @description Samples per bucket; 0 for the empty bucket spanning a gap */
+            /** @description Samples per bucket; 0 for the empty bucket spanning a gap. Buckets hold consecutive samples, so the running total of `count` gives each bucket's first and last sample in the window */
             count: number[];
             /** @description Amperes; null in a gap */
             min: (number | null)[];

@@ -115,6 +115,41 @@ describe('/api/v1/traces', () => {
   });
 
   describe('queries', () => {
+    it('when a window with a gap is charted, then the running total of `count` places each exported sample in a bucket that holds it, `t` is the bucket\'s middle, and the gap is an empty bucket', async () => {
+      // common practice, no source: a chart envelope keeps every sample between its bucket's min and max
+      // and shows a gap in the recording as a break, never as a line across it.
+      const { body: trace } = await create({ name: 'Walk-in cooler' });
+      // Synthetic: 12,000 readings 10 ms apart (times with microseconds), 5 s missing after the 6,000th.
+      const times = Array.from({ length: 12_000 }, (_, i) => T0 + i * 10 + (i >= 6000 ? 5000 : 0) + (i % 3) * 0.001);
+      const amps = times.map((_, i) => Math.fround(6 + 4 * Math.sin(i / 37) + (i % 11) * 0.01));
+      expect((await append(trace.id, { t: times, a: amps })).status).toBe(200);
+      const from = times[1000] as number;
+      const to = times[11_000] as number;
+      const series = (await request(t.app).get(`/api/v1/traces/${trace.id}/series?points=40&from=${from}&to=${to}`).set(auth)).body;
+      const exported = (await request(t.app).get(`/api/v1/traces/${trace.id}/samples?format=json&from=${from}&to=${to}`).set(auth)).body;
+      expect(series.level).toBe('blocks');
+      expect(exported.t).toHaveLength(10_001);
+      expect(series.count.reduce((a: number, b: number) => a + b, 0)).toBe(10_001);
+      expect(series.count.filter((c: number) => c === 0)).toHaveLength(1);
+      let i = 0;
+      for (let k = 0; k < series.count.length; k++) {
+        const c = series.count[k] as number;
+        if (c === 0) {
+          expect([series.min[k], series.max[k], series.mean[k]]).toEqual([null, null, null]);
+          expect([exported.t[i - 1], exported.t[i]]).toEqual([times[5999], times[6000]]);
+          expect(series.t[k]).toBeCloseTo((exported.t[i - 1] + exported.t[i]) / 2, 3);
+          continue;
+        }
+        // The export writes each float32 in its shortest decimal; the envelope's min and max are the same float32s.
+        const inBucket = exported.a.slice(i, i + c) as number[];
+        expect(Math.fround(Math.min(...inBucket))).toBe(series.min[k]);
+        expect(Math.fround(Math.max(...inBucket))).toBe(series.max[k]);
+        expect(series.t[k]).toBeCloseTo((exported.t[i] + exported.t[i + c - 1]) / 2, 3);
+        i += c;
+      }
+      expect(Object.keys(series).sort()).toEqual(['count', 'fromTime', 'level', 'max', 'mean', 'min', 'points', 'rms', 'sampleCount', 't', 'toTime', 'traceId']);
+    });
+
     it('when an open waveform is read, then its envelope keeps to the points asked and carries the half-cycle RMS series; closing stores its events', async () => {
       const rate = 5000;
       const { body: trace } = await create({ name: 'Motor start', kind: 'waveform', sampleRateHz: rate, mainsHz: 50 });

@@ -234,10 +234,10 @@ export const SeriesResponse = z
     points: z.number().int(),
     level: z.enum(['samples', 'blocks', 'chunks']).openapi({ description: 'What the buckets were built from' }),
     sampleCount: z.number().int(),
-    t: z.array(z.number()).openapi({ description: 'Middle of each bucket, epoch ms' }),
-    startTime: z.array(z.number()),
-    endTime: z.array(z.number()),
-    count: z.array(z.number().int()).openapi({ description: 'Samples per bucket; 0 for the empty bucket spanning a gap' }),
+    t: z.array(z.number()).openapi({ description: "Middle of each bucket (halfway between its first and last sample; a gap's middle for an empty bucket), epoch ms" }),
+    count: z
+      .array(z.number().int())
+      .openapi({ description: "Samples per bucket; 0 for the empty bucket spanning a gap. Buckets hold consecutive samples, so the running total of `count` gives each bucket's first and last sample in the window" }),
     min: bucketValues.openapi({ description: 'Amperes; null in a gap' }),
     max: bucketValues,
     mean: bucketValues,

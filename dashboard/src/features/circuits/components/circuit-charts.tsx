@@ -22,7 +22,7 @@ const numberField = (o: Record<string, unknown>, key: string): number | null => 
 function seriesFromTrace(label: string, d: LoadTraceData): StackedSeries | null {
   const s = d.series;
   if (!s || s.t.length === 0) return null;
-  const t0 = s.startTime[0] ?? s.t[0]!;
+  const t0 = s.fromTime ?? s.t[0]!;
   const values = s.rms ? s.rms.mean : s.mean;
   return { label, t: s.t.map((t) => (t - t0) / 1000), a: values };
 }
