@@ -95,9 +95,9 @@ class BucketBuilder {
 
 /**
  * Adds samples [from, to) of a chunk in pieces that end at multiples of `pieceSamples` in the chunk, or
- * earlier at a gap when `splitGapUs` is given: at sample level one sample a piece; for a window's edge
- * chunks at block level pieces of a 64-sample block, as the stored envelope, splitting at gaps; at
- * chunk level one piece. One add per piece instead of one per sample.
+ * earlier at a gap when `splitGapUs` is given: one sample a piece at sample level, a 64-sample block
+ * (as the stored envelope) at block level, a whole chunk at chunk level. One add per piece instead of
+ * one per sample.
  */
 function addSamplePieces(builder: BucketBuilder, chunk: DecodedChunk, from: number, to: number, pieceSamples: number, splitGapUs: number | null): void {
   const { values, timesUs } = chunk;
@@ -178,18 +178,16 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   const builder = new BucketBuilder(target, splitGaps ? gapUs : null);
 
   const interior = rows.filter((r) => !edges.has(r.seq));
-  // Interior chunks with a gap inside are read from their samples when gaps split buckets: a stored
-  // block or chunk summary spanning the gap cannot end a bucket there. Gaps are few when they split
-  // (at most points / 4), and so are these chunks.
-  const splitsInside = splitGaps && level !== 'samples' ? interior.filter((r) => r.gapCount > 0) : [];
-  const withGapInside = new Set(splitsInside.map((r) => r.seq));
-  const gapChunks = readChunks(store, trace.traceId, splitsInside, 16);
-  const pieceSamples = level === 'blocks' ? ENVELOPE_BLOCK_SAMPLES : CHUNK_SAMPLES;
-  const interiorBySeq = new Map<number, DecodedChunk>();
+  // Interior chunks read from their samples: all of them at sample level; at block and chunk level
+  // those with a gap inside while gaps split buckets, since a stored block envelope or chunk summary
+  // spanning the gap cannot end a bucket there (gaps are few when they split: at most points / 4).
+  const fromSamples = level === 'samples' ? interior : splitGaps ? interior.filter((r) => r.gapCount > 0) : [];
+  const readFromSamples = new Set(fromSamples.map((r) => r.seq));
+  const decoded = readChunks(store, trace.traceId, fromSamples);
+  const pieceSamples = level === 'samples' ? 1 : level === 'blocks' ? ENVELOPE_BLOCK_SAMPLES : CHUNK_SAMPLES;
+  const pieceGapUs = splitGaps ? gapUs : null;
   const blobsBySeq = new Map<number, { envelope: Buffer; times: Buffer | null }>();
-  if (level === 'samples' && interior.length > 0) {
-    for await (const chunk of readChunks(store, trace.traceId, interior)) interiorBySeq.set(chunk.row.seq, chunk);
-  } else if (level === 'blocks' && interior.length > 0) {
+  if (level === 'blocks' && interior.length > 0) {
     const first = (interior[0] as ChunkSummaryRow).seq;
     const last = (interior[interior.length - 1] as ChunkSummaryRow).seq;
     const withTimes = interior.some((r) => r.encoding === 'explicit');
@@ -199,15 +197,11 @@ export async function envelope(store: ChunkStore, trace: StoredTrace, fromUs: nu
   for (const row of rows) {
     const edge = edges.get(row.seq);
     if (edge) {
-      if (level === 'samples') addSamplePieces(builder, edge.chunk, edge.from, edge.to, 1, null);
-      else addSamplePieces(builder, edge.chunk, edge.from, edge.to, pieceSamples, splitGaps ? gapUs : null);
-    } else if (withGapInside.has(row.seq)) {
-      const next = await gapChunks.next();
+      addSamplePieces(builder, edge.chunk, edge.from, edge.to, pieceSamples, pieceGapUs);
+    } else if (readFromSamples.has(row.seq)) {
+      const next = await decoded.next();
       if (next.done || next.value.row.seq !== row.seq) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} was not read`);
-      addSamplePieces(builder, next.value, 0, row.count, pieceSamples, gapUs);
-    } else if (level === 'samples') {
-      const chunk = interiorBySeq.get(row.seq) as DecodedChunk;
-      addSamplePieces(builder, chunk, 0, row.count, 1, null);
+      addSamplePieces(builder, next.value, 0, row.count, pieceSamples, pieceGapUs);
     } else if (level === 'blocks') {
       const blobs = blobsBySeq.get(row.seq);
       if (!blobs) throw new Error(`chunk ${row.seq} of trace ${trace.traceId} has no envelope`);
