@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { MAX_ABS_TIME_US } from '../storage/chunk-codec.js';
 import { EPOCH_MS_FROM, EPOCH_S_FROM, TIME_FORMATS, TimestampError, TimestampReader, parseInstantUs, parseUtcOffset, type TimestampOptions } from './timestamps.js';
 
 describe('timestamps', () => {
@@ -37,11 +38,34 @@ describe('timestamps', () => {
     expect(parseInstantUs('yesterday')).toBeNull();
   });
 
+  it('when a time lies outside what whole microseconds hold exactly, then it is refused wherever it is given', () => {
+    // source: ECMA-262, Number.MAX_SAFE_INTEGER = 2^53 − 1, the largest integer a double holds with
+    // every integer below it: 9,007,199,254,740,991 µs after 1970 is 2255-06-05T23:47:34.740991Z.
+    expect(MAX_ABS_TIME_US).toBe(2 ** 53 - 1);
+    const reader = () => new TimestampReader({ traceStartUs: null });
+    expect(reader().fromNumber(9_007_199_254_740.99)).toBe(9_007_199_254_740_990);
+    expect(() => reader().fromNumber(9_007_199_254_741)).toThrow(/the timestamp 9007199254741 \(epoch milliseconds\) is not between 1684-07-28 and 2255-06-05/);
+    expect(() => reader().fromNumber(1e300)).toThrow(/is not between/);
+    expect(() => new TimestampReader({ traceStartUs: null, format: 'epoch-ms' }).fromNumber(-9_007_199_254_741)).toThrow(/is not between/);
+    expect(() => new TimestampReader({ traceStartUs: null, format: 'epoch-s' }).fromNumber(1e10)).toThrow(/is not between/);
+    // Seconds from a start in 2023 run out some 232 years later.
+    expect(() => new TimestampReader({ traceStartUs: 1_700_000_000_000_000 }).fromNumber(7.4e9)).toThrow(/seconds from the trace start\) is not between/);
+    expect(reader().fromText('2255-06-05T23:47:34Z')).toBe(9_007_199_254_000_000);
+    expect(() => reader().fromText('2255-06-06T00:00:00Z')).toThrow(/"2255-06-06T00:00:00Z" is not between/);
+    expect(() => reader().fromText('01/01/1600 00:00')).toThrow(/is not between/);
+    expect(parseInstantUs(9_007_199_254_740)).toBe(9_007_199_254_740_000);
+    expect(parseInstantUs('9007199254741')).toBeNull();
+    expect(parseInstantUs(1e300)).toBeNull();
+    expect(parseInstantUs('9999-12-31T00:00:00Z')).toBeNull();
+  });
+
   it('when a run of numbers is read in one loop, then each timestamp and each refusal is the one fromNumber gives', () => {
     // The loop (fromNumbers, for JSON `t` arrays) must be fromNumber on each value, in order: same µs,
     // same first error at the same index. Values around each format's detection bounds.
     const near = (x: number) => fc.oneof(fc.constant(x), fc.double({ min: x - 1e3, max: x + 1e3, noNaN: true }));
-    const value = fc.oneof(near(EPOCH_MS_FROM), near(EPOCH_S_FROM), near(0), fc.double({ noNaN: false }), fc.constantFrom(-0, 1_764_000_000_000.25, Number.MAX_VALUE, -Number.MAX_VALUE));
+    // The storable limits too: ±2^53 µs as epoch ms, epoch s, and seconds from the start below.
+    const limits = [MAX_ABS_TIME_US / 1000, -MAX_ABS_TIME_US / 1000, MAX_ABS_TIME_US / 1e6, (MAX_ABS_TIME_US - 1_764_000_000_000_000) / 1e6];
+    const value = fc.oneof(near(EPOCH_MS_FROM), near(EPOCH_S_FROM), near(0), ...limits.map(near), fc.double({ noNaN: false }), fc.constantFrom(-0, 1_764_000_000_000.25, Number.MAX_VALUE, -Number.MAX_VALUE));
     const options = fc.record({
       format: fc.constantFrom(undefined, ...TIME_FORMATS),
       traceStartUs: fc.constantFrom(null, 1_764_000_000_000_000),

@@ -10,8 +10,10 @@
  * - `d/m/y`, `m/d/y`, `y/m/d`: date and time as loggers write them (`16/12/2006 17:24:00`, `12/16/2006 5:24:00`,
  *   `2006-12-16 17:24:00`), read at `utcOffset`.
  * Every timestamp of a batch must have the format of the first: a change is a "mixed formats" error.
+ * Every time must be one storage holds exactly (MAX_ABS_TIME_US: 1684 to 2255).
  */
 
+import { isStorableTimeUs, MAX_ABS_TIME_US, TIME_RANGE_TEXT } from '../storage/chunk-codec.js';
 import { parseDecimalText } from './decimal-text.js';
 
 export const TIME_FORMATS = ['epoch-ms', 'epoch-s', 'seconds', 'iso', 'd/m/y', 'm/d/y', 'y/m/d'] as const;
@@ -107,8 +109,20 @@ export class TimestampReader {
     if (options.format !== undefined) this.linear = this.linearTime(options.format);
   }
 
-  /** The numbers `format` takes as a linear map to µs (null for the text formats, or seconds without a start time). */
+  /**
+   * The numbers `format` takes as a linear map to µs (null for the text formats, or seconds without a
+   * start time). Its range is fromNumbers' fast path, so it is narrowed to storable times, a
+   * millisecond inside the limit so that rounding never carries a time it takes past it; fromNumber
+   * decides on the last millisecond with the time itself.
+   */
   private linearTime(format: TimeFormat): LinearTime | null {
+    const map = this.formatMap(format);
+    if (map === null) return null;
+    const limitUs = MAX_ABS_TIME_US - 1000;
+    return { ...map, from: Math.max(map.from, (-limitUs - map.offsetUs) / map.scale), to: Math.min(map.to, (limitUs - map.offsetUs) / map.scale) };
+  }
+
+  private formatMap(format: TimeFormat): LinearTime | null {
     // A fixed format takes any finite number; a detected one only the numbers it is detected from.
     const any = { from: -Number.MAX_VALUE, to: Number.POSITIVE_INFINITY };
     const seconds = this.options.detectEpochSeconds ? EPOCH_S_FROM : EPOCH_MS_FROM;
@@ -156,9 +170,13 @@ export class TimestampReader {
     if (!Number.isFinite(value)) throw new TimestampError('the timestamp is not a finite number');
     const format = this.fixed ? (this.format as TimeFormat) : this.settle(this.numericFormat(value));
     // settle holds a detected format to the numbers it is detected from, and a fixed one takes any
-    // finite number: the settled format's linear map takes this value whenever it has one.
+    // finite number: the settled format's linear map gives this value's time, if storable.
     const linear = this.linear;
-    if (linear !== null && value >= linear.from && value < linear.to) return Math.round(linear.offsetUs + value * linear.scale);
+    if (linear !== null) {
+      const us = Math.round(linear.offsetUs + value * linear.scale);
+      if (isStorableTimeUs(us)) return us;
+      throw new TimestampError(`the timestamp ${value} (${describe(format)}) is not ${TIME_RANGE_TEXT}`);
+    }
     if (format === 'seconds') {
       throw new TimestampError('seconds from the trace start need the trace\'s startTime; set it, or send epoch milliseconds or ISO 8601');
     }
@@ -201,9 +219,12 @@ export class TimestampReader {
     }
     if (this.format === undefined) this.settle(detectTextFormat(text));
     const format = this.format as TimeFormat;
-    if (format === 'iso' || (format === 'y/m/d' && ISO_PATTERN.test(text))) return this.fromIso(text, raw, format);
-    if (format === 'd/m/y' || format === 'm/d/y' || format === 'y/m/d') return this.fromSlashed(text, raw, format);
-    throw new TimestampError(`expected ${describe(format)}, got "${raw}"`);
+    let us: number;
+    if (format === 'iso' || (format === 'y/m/d' && ISO_PATTERN.test(text))) us = this.fromIso(text, raw, format);
+    else if (format === 'd/m/y' || format === 'm/d/y' || format === 'y/m/d') us = this.fromSlashed(text, raw, format);
+    else throw new TimestampError(`expected ${describe(format)}, got "${raw}"`);
+    if (!isStorableTimeUs(us)) throw new TimestampError(`"${raw}" is not ${TIME_RANGE_TEXT}`);
+    return us;
   }
 
   private fromIso(text: string, raw: string, format: TimeFormat): number {
@@ -250,11 +271,15 @@ export function parseUtcOffset(zone: string): number | null {
   return minutes > 14 * 60 ? null : (m[1] === '-' ? -1 : 1) * minutes;
 }
 
-/** Parses `from`/`to` style instants: epoch milliseconds or ISO 8601 (UTC when no offset). Returns µs or null. */
+/**
+ * Parses `from`/`to` style instants: epoch milliseconds or ISO 8601 (UTC when no offset). Returns µs,
+ * or null when it is neither or not a storable time.
+ */
 export function parseInstantUs(value: string | number): number | null {
-  if (typeof value === 'number') return Number.isFinite(value) ? Math.round(value * 1000) : null;
+  const storable = (us: number) => (isStorableTimeUs(us) ? us : null);
+  if (typeof value === 'number') return storable(Math.round(value * 1000));
   const text = value.trim();
-  if (/^[+-]?\d+(\.\d+)?$/.test(text)) return Math.round(Number(text) * 1000);
+  if (/^[+-]?\d+(\.\d+)?$/.test(text)) return storable(Math.round(Number(text) * 1000));
   try {
     return new TimestampReader({ format: 'iso', traceStartUs: null }).fromText(text);
   } catch {

@@ -18,6 +18,7 @@ import { readNdjsonSamples } from '../ingest/ndjson-samples.js';
 import type { UniformStart } from '../ingest/sample-sink.js';
 import { TimestampReader, parseInstantUs, parseUtcOffset, type TimeFormat } from '../ingest/timestamps.js';
 import { startBatch, type BatchResult, type BatchWriter, type LastChunkData } from '../storage/batch-writer.js';
+import { TIME_RANGE_TEXT } from '../storage/chunk-codec.js';
 import type { ChunkSummaryRow } from '../storage/summary-rows.js';
 import type { ChunkStore } from '../storage/chunk-store.js';
 import { presentAnalysis } from './analysis-view.js';
@@ -208,7 +209,7 @@ export function createTraceIngest(deps: IngestDeps) {
   function explicitStart(options: SampleReadOptions, parameter: string): UniformStart | null {
     if (options.start === undefined) return null;
     const us = parseInstantUs(options.start);
-    if (us === null) throw badParameter(parameter, 'must be epoch milliseconds or an ISO 8601 date-time');
+    if (us === null) throw badParameter(parameter, `must be epoch milliseconds or an ISO 8601 date-time, ${TIME_RANGE_TEXT}`);
     return { startUs: us };
   }
 

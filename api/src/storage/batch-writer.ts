@@ -22,6 +22,8 @@ import {
   encodeEnvelope,
   encodeSamples,
   encodeTimes,
+  isStorableTimeUs,
+  TIME_RANGE_TEXT,
 } from './chunk-codec.js';
 import type { ChunkStore, IdempotencyRecord, StoredChunk, TraceStorageState } from './chunk-store.js';
 import { summaryColumns, withGapThreshold, type ChunkSummaryRow } from './summary-rows.js';
@@ -146,6 +148,7 @@ export class BatchWriter {
     if (values.length === 0) return;
     const run = this.resolveRun(start, rateHz);
     const firstUs = timeOfRunIndex(run, run.nextIndex);
+    this.checkTimes(firstUs, timeOfRunIndex(run, run.nextIndex + values.length - 1));
     await this.begin(firstUs, 'uniform', run);
     let i = 0;
     while (i < values.length) {
@@ -166,6 +169,7 @@ export class BatchWriter {
   async pushExplicit(values: Float32Array, timesUs: Float64Array): Promise<void> {
     if (values.length !== timesUs.length) throw new RangeError('values and times differ in length');
     if (values.length === 0) return;
+    this.checkTimes(timesUs[0] as number, timesUs[timesUs.length - 1] as number);
     await this.begin(timesUs[0] as number, 'explicit', null);
     let i = 0;
     while (i < values.length) {
@@ -225,6 +229,20 @@ export class BatchWriter {
     chunk.count = last.count;
     chunk.oldCount = last.count;
     this.open = chunk;
+  }
+
+  /**
+   * Refuses samples running from firstUs to lastUs (in order) unless both are storable times: the
+   * timestamp readers refuse a single time outside, this covers what they cannot see, such as a
+   * uniform run whose rate is so low that its later samples fall past the range.
+   */
+  private checkTimes(firstUs: number, lastUs: number): void {
+    if (isStorableTimeUs(firstUs) && isStorableTimeUs(lastUs)) return;
+    const time = (us: number) =>
+      isStorableTimeUs(us) ? new Date(Math.floor(us / 1000)).toISOString() : Number.isFinite(us) ? `${us / 1000} ms since 1970` : 'past any date';
+    throw new Problem('validation', `Sample times must be ${TIME_RANGE_TEXT}; these samples run from ${time(firstUs)} to ${time(lastUs)}. Nothing was stored.`, {
+      errors: [{ detail: `sample times must be ${TIME_RANGE_TEXT}`, pointer: '' }],
+    });
   }
 
   private throwOverlap(firstUs: number): never {

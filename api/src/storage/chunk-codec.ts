@@ -10,6 +10,20 @@
  */
 import { endianness } from 'node:os';
 
+/**
+ * Largest magnitude of a stored sample time (µs since 1970-01-01 UTC): whole microseconds and the steps
+ * between them stay exact in a double up to 2^53 − 1 (Number.MAX_SAFE_INTEGER, ECMA-262), so times
+ * from 1684-07-28T00:12:25.260Z to 2255-06-05T23:47:34.740Z. Ingest refuses times outside.
+ */
+export const MAX_ABS_TIME_US = Number.MAX_SAFE_INTEGER;
+/** The storable range of sample times, as problems name it. */
+export const TIME_RANGE_TEXT = 'between 1684-07-28 and 2255-06-05 (UTC)';
+
+/** Whether `us` is a storable sample time (false for NaN and ±Infinity too). */
+export function isStorableTimeUs(us: number): boolean {
+  return Math.abs(us) <= MAX_ABS_TIME_US;
+}
+
 /** Samples per stored chunk. */
 export const CHUNK_SAMPLES = 4096;
 /** Samples per envelope block. */

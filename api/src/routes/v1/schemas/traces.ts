@@ -2,6 +2,7 @@ import { TRACE_KINDS, TRACE_STATUSES } from '../../../models/trace.js';
 import { BINARY_VALUE_TYPES } from '../../../ingest/binary-samples.js';
 import { CSV_DELIMITERS, READING_UNITS, type CsvDelimiter } from '../../../ingest/csv-samples.js';
 import { TIME_FORMATS, parseInstantUs } from '../../../ingest/timestamps.js';
+import { TIME_RANGE_TEXT } from '../../../storage/chunk-codec.js';
 import { TRACE_SORTS } from '../../../services/traces.js';
 import { AnalyzeResponse, EventParamsInput, InrushEvent, Probe, Surge } from './analyze.js';
 import { Statistics } from './statistics.js';
@@ -15,7 +16,7 @@ export const Instant = z
   .transform((value, ctx) => {
     const us = parseInstantUs(value);
     if (us === null) {
-      ctx.addIssue({ code: 'custom', message: 'must be epoch milliseconds or an ISO 8601 date-time' });
+      ctx.addIssue({ code: 'custom', message: `must be epoch milliseconds or an ISO 8601 date-time, ${TIME_RANGE_TEXT}` });
       return z.NEVER;
     }
     return us / 1000;
